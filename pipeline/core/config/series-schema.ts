@@ -1,0 +1,100 @@
+import { z } from 'zod';
+import { enumSetting, numberSetting } from './setting.js';
+
+/**
+ * The `series.yaml` contract (DESIGN.md, "Run-series layout"). One definition: ingest
+ * validates with it and `pipeline/tools/write-schemas.ts` emits configs/series.schema.json
+ * from it. Objects are strict: an unknown key is a diagnostic, so a typo never silently
+ * falls back to a default.
+ */
+
+const idPattern = /^[A-Za-z0-9][A-Za-z0-9_.-]*$/;
+const id = (what: string) =>
+  z.string().regex(idPattern, `${what} must start with a letter or digit and hold only letters, digits, '_', '.', '-'`);
+
+/** Element symbol (natural abundance) or nuclide (mass number + symbol). */
+const compositionKey = z.string().regex(/^(\d{1,3})?[A-Z][a-z]?$/, "expected an element symbol ('Au') or a nuclide ('13C')");
+const nuclideName = z.string().regex(/^\d{1,3}[A-Z][a-z]?$/, "expected a nuclide as mass number + symbol, e.g. '12C', '4He'");
+
+export const layerSchema = z
+  .strictObject({
+    composition: z.record(compositionKey, z.number().positive()).meta({ description: 'atom ratios by element or nuclide' }),
+    areal_density_1e15_per_cm2: z.number().positive().optional().meta({ description: 'areal density', unit: '1e15 atoms/cm^2' }),
+    areal_density_ug_per_cm2: z.number().positive().optional().meta({ description: 'areal density', unit: 'ug/cm^2' }),
+    areal_density_unc_rel: z.number().min(0).max(1).default(0).meta({ description: 'relative standard uncertainty of the areal density' }),
+  })
+  .refine((l) => (l.areal_density_1e15_per_cm2 === undefined) !== (l.areal_density_ug_per_cm2 === undefined), {
+    message: 'give exactly one of areal_density_1e15_per_cm2 or areal_density_ug_per_cm2',
+  });
+
+export const detectorSchema = z.strictObject({
+  id: id('detector id'),
+  angle_deg: z.number().gt(0).lt(180).meta({ description: 'lab scattering angle', unit: 'deg' }),
+  angle_unc_deg: z.number().min(0).default(0).meta({ description: 'standard uncertainty of the angle', unit: 'deg' }),
+  resolution_fwhm_keV: z.number().positive().meta({ description: 'energy resolution (FWHM)', unit: 'keV' }),
+  solid_angle_msr: z.number().positive().meta({ description: 'nominal solid angle', unit: 'msr' }),
+});
+
+export const targetSchema = z.strictObject({
+  id: id('target id'),
+  layers: z.array(layerSchema).min(1).meta({ description: 'layers, beam side first' }),
+});
+
+export const peakSchema = z.strictObject({
+  label: z.string().min(1).max(80),
+  target_nuclide: nuclideName,
+  excitation_keV: z.number().min(0).default(0).meta({ description: 'excitation energy of the residual nucleus', unit: 'keV' }),
+  q_value_keV: z.number().optional().meta({ description: 'overrides Q computed from AME2020 masses and excitation_keV', unit: 'keV' }),
+  method: z.enum(['window']).default('window').meta({ description: 'how the peak area is measured' }),
+});
+
+export const normalizationSchema = z.strictObject({
+  method: z.enum(['reference-run']).default('reference-run').meta({ description: 'normalization method' }),
+  reference_target: id('target id').meta({ description: 'the target whose yield follows the Rutherford cross section' }),
+  reference_element: z
+    .string()
+    .regex(/^[A-Z][a-z]?$/)
+    .optional()
+    .meta({ description: 'element of the reference target whose elastic peak normalizes (default: the heaviest)' }),
+  screening: enumSetting(['lecuyer', 'none'] as const, { default: 'lecuyer', doc: 'electron-screening correction of the Rutherford cross section' }),
+  reference_rule: enumSetting(['bracketing'] as const, {
+    default: 'bracketing',
+    doc: 'which reference runs normalize a sample run: bracketing = interpolate in time between the nearest before and after',
+  }),
+  outlier_pull: numberSetting({ default: 3, min: 1, doc: 'a reference run further than this many standard deviations from its detector mean is flagged' }),
+  nominal_tolerance_rel: numberSetting({ default: 0.1, min: 0, doc: 'flag an effective solid angle further than this fraction from the nominal one' }),
+});
+
+export const extractSettingsSchema = z.strictObject({
+  peak_half_width_fwhm: numberSetting({ default: 1.5, min: 0.3, max: 6, unit: 'FWHM', doc: 'half-width of the peak integration window' }),
+  background_gap_fwhm: numberSetting({ default: 0.5, min: 0, max: 6, unit: 'FWHM', doc: 'gap between the peak window and each background window' }),
+  background_width_fwhm: numberSetting({ default: 1.5, min: 0.2, max: 20, unit: 'FWHM', doc: 'width of each background side window' }),
+  shift_tolerance_fwhm: numberSetting({
+    default: 0.5,
+    min: 0,
+    unit: 'FWHM',
+    doc: 'flag a peak whose centroid lies further than this from the expected position',
+  }),
+});
+
+export const seriesSchema = z.strictObject({
+  series: z.string().regex(/^[a-z0-9-]+$/, "series id must match [a-z0-9-]+, e.g. 'lab-2026-c12'"),
+  title: z.string().default(''),
+  beam: z.strictObject({
+    projectile: nuclideName,
+    charge_state: z.number().int().min(1).meta({ description: 'charge state of the beam ions (charge integrated per ion, in e)' }),
+  }),
+  detectors: z.array(detectorSchema).min(1),
+  targets: z.array(targetSchema).min(1),
+  peaks: z.array(peakSchema).min(1),
+  normalization: normalizationSchema,
+  extract: extractSettingsSchema.default(extractSettingsSchema.parse({})),
+});
+
+export type LayerConfig = z.output<typeof layerSchema>;
+export type DetectorConfig = z.output<typeof detectorSchema>;
+export type TargetConfig = z.output<typeof targetSchema>;
+export type PeakConfig = z.output<typeof peakSchema>;
+export type NormalizationConfig = z.output<typeof normalizationSchema>;
+export type ExtractSettings = z.output<typeof extractSettingsSchema>;
+export type SeriesConfig = z.output<typeof seriesSchema>;

@@ -1,0 +1,46 @@
+import type { TargetConfig } from '../config/series-schema.js';
+import { molarMassGPerMol, naturalIsotopes, nuclide, parseNuclideName } from '../physics/nuclides.js';
+import { arealDensityUgPerCm2ToAtomsPerCm2 } from '../physics/units.js';
+import type { ResolvedNuclide } from './series-model.js';
+
+/**
+ * The number of atoms per cm² of every nuclide in a target: layer areal density × atom
+ * fraction of the composition key × isotopic abundance (1 for a key that names a nuclide).
+ * A layer given in µg/cm² is converted with the composition's mean molar mass.
+ * Throws (UnknownElementError / UnknownNuclideError) for keys the tables do not hold; ingest
+ * checks keys first and reports them as diagnostics.
+ */
+export function resolveTarget(target: TargetConfig): ResolvedNuclide[] {
+  const out: ResolvedNuclide[] = [];
+  target.layers.forEach((layer, li) => {
+    const entries = Object.entries(layer.composition);
+    const totalParts = entries.reduce((s, [, x]) => s + x, 0);
+    let atomsPerCm2: number;
+    if (layer.areal_density_1e15_per_cm2 !== undefined) atomsPerCm2 = layer.areal_density_1e15_per_cm2 * 1e15;
+    else {
+      const meanMolar = entries.reduce((s, [k, x]) => s + x * molarMassGPerMol(k), 0) / totalParts;
+      atomsPerCm2 = arealDensityUgPerCm2ToAtomsPerCm2(layer.areal_density_ug_per_cm2!, meanMolar);
+    }
+    for (const [key, parts] of entries) {
+      const fraction = parts / totalParts;
+      const isNuclide = parseNuclideName(key) !== null;
+      const isotopes = isNuclide ? [{ nuclide: nuclide(key), abundance: 1 }] : naturalIsotopes(key);
+      for (const iso of isotopes) {
+        const prev = out.find((r) => r.nuclide === iso.nuclide.name && r.layer === li);
+        const n = atomsPerCm2 * fraction * iso.abundance;
+        if (prev) prev.atomsPerCm2 += n;
+        else out.push({ nuclide: iso.nuclide.name, element: iso.nuclide.symbol, layer: li, atomsPerCm2: n, relUnc: layer.areal_density_unc_rel });
+      }
+    }
+  });
+  return out;
+}
+
+/** Atoms per cm² of one nuclide summed over layers, with the relative uncertainty (layers taken as fully correlated: conservative). */
+export function nuclideAreal(resolved: readonly ResolvedNuclide[], nuclideName: string): { atomsPerCm2: number; relUnc: number } | null {
+  const rows = resolved.filter((r) => r.nuclide === nuclideName);
+  if (rows.length === 0) return null;
+  const n = rows.reduce((s, r) => s + r.atomsPerCm2, 0);
+  const u = rows.reduce((s, r) => s + r.atomsPerCm2 * r.relUnc, 0);
+  return { atomsPerCm2: n, relUnc: u / n };
+}

@@ -1,0 +1,96 @@
+#!/usr/bin/env node
+import { availableParallelism } from 'node:os';
+import { existsSync, statSync } from 'node:fs';
+import { Command, InvalidArgumentError } from 'commander';
+import type { Diagnostic } from '../core/diagnostics/diagnostic.js';
+import { formatDiagnostic } from '../core/diagnostics/format-diagnostic.js';
+import { EXIT } from './exit-codes.js';
+import { createLogger } from './logger.js';
+import { SOFTWARE } from './software.js';
+
+const EXIT_HELP = `
+Exit codes:
+  0  every run reduced
+  3  reduced, but some runs were set aside (reasons in qc.arrow, diagnostics.json and the log)
+  2  unusable arguments or a series-level error (nothing written)
+  1  internal error (a bug: please report it with the log)`;
+
+function positiveInt(v: string): number {
+  const n = Number(v);
+  if (!Number.isInteger(n) || n < 1) throw new InvalidArgumentError(`expected a whole number ≥ 1, got "${v}"`);
+  return n;
+}
+
+const levelFor = (d: Diagnostic) => (d.severity === 'error' ? 'error' : d.severity === 'warning' ? 'warn' : 'info');
+
+async function main(argv: string[]): Promise<number> {
+  const program = new Command();
+  let exitCode: number = EXIT.ok;
+  program
+    .name('xsred')
+    .description('Reduce charged-particle scattering run series into absolute differential cross sections.')
+    .version(SOFTWARE.version, '-V, --version')
+    .showHelpAfterError()
+    .exitOverride()
+    .addHelpText('after', EXIT_HELP);
+
+  program
+    .command('reduce')
+    .description('reduce one run series (a folder with series.yaml, runlog.csv, spectra/, calibrations/) into <out>/<series>/')
+    .argument('<series-dir>', 'the run-series folder')
+    .requiredOption('-o, --out <out-dir>', 'output folder; results go to <out-dir>/<series>/')
+    .option('-j, --jobs <n>', 'worker threads for reading spectra (default: number of cores)', positiveInt, availableParallelism())
+    .option('--no-html', 'skip summary.html (tables and manifest only)')
+    .option('-q, --quiet', 'log warnings and errors only')
+    .addHelpText('after', EXIT_HELP)
+    .action(async (seriesDir: string, o: { out: string; jobs: number; html: boolean; quiet?: boolean }) => {
+      const log = await createLogger(o.quiet ? 'warn' : 'info');
+      if (!existsSync(seriesDir) || !statSync(seriesDir).isDirectory()) {
+        log.error(`${seriesDir}: not a folder; expected a run-series folder holding series.yaml`);
+        exitCode = EXIT.usage;
+        return;
+      }
+      const { reduceSeries } = await import('./reduce-series.js');
+      const t0 = performance.now();
+      const r = await reduceSeries({ seriesDir, outDir: o.out, jobs: o.jobs, html: o.html, commandLine: ['xsred', ...argv.slice(2)] });
+      for (const d of r.diagnostics) log[levelFor(d)]({ diagnostic: d }, formatDiagnostic(d));
+      const ms = Math.round(performance.now() - t0);
+      if (r.exitCode === EXIT.usage) {
+        log.error({ series_dir: seriesDir }, `series not reduced: ${r.diagnostics.filter((d) => d.severity === 'error').length} error(s) above`);
+      } else {
+        log.info({ series: r.series, ...r.counts, duration_ms: ms }, `${r.series}: ${r.counts.reduced} runs reduced, ${r.counts.setAside} set aside, ${r.counts.rows} cross-section rows in ${ms} ms`);
+        process.stdout.write(`${r.outSeriesDir}\n${r.summaryPath ? `${r.summaryPath}\n` : ''}`);
+      }
+      exitCode = r.exitCode;
+    });
+
+  program
+    .command('simulate')
+    .description('write a simulated run series (and its truth table) from a simulation spec')
+    .argument('<spec>', 'simulation spec (YAML)')
+    .requiredOption('-o, --out <out-dir>', 'folder to write <out-dir>/<series>/ into')
+    .action(async (spec: string, o: { out: string }) => {
+      const { runSimulateCommand } = await import('../simulate/simulate-command.js');
+      exitCode = await runSimulateCommand(spec, o.out);
+    });
+
+  try {
+    await program.parseAsync(argv);
+  } catch (e) {
+    const err = e as { code?: string; exitCode?: number };
+    if (err.code === 'commander.helpDisplayed' || err.code === 'commander.version' || err.code === 'commander.help') return EXIT.ok;
+    if (typeof err.code === 'string' && err.code.startsWith('commander.')) return EXIT.usage;
+    throw e;
+  }
+  return exitCode;
+}
+
+main(process.argv).then(
+  (code) => {
+    process.exitCode = code;
+  },
+  (e: unknown) => {
+    process.stderr.write(`xsred: internal error: ${(e as Error).stack ?? String(e)}\nPlease report this with the command line and the log.\n`);
+    process.exitCode = EXIT.internal;
+  },
+);

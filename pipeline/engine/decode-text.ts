@@ -1,0 +1,19 @@
+import type { Diagnostic } from '../core/diagnostics/diagnostic.js';
+
+const utf8 = new TextDecoder('utf-8', { fatal: true, ignoreBOM: false });
+const latin1 = new TextDecoder('latin1');
+
+/**
+ * Text of a metadata file. UTF-8 (with or without BOM) is expected; older lab PCs write
+ * Windows-1252 (a `µ` or `°` in a note), which is read as such with an info diagnostic.
+ */
+export function decodeText(bytes: Uint8Array, file: string): { text: string; diagnostics: Diagnostic[] } {
+  try {
+    return { text: utf8.decode(bytes), diagnostics: [] };
+  } catch {
+    return {
+      text: latin1.decode(bytes),
+      diagnostics: [{ severity: 'info', rule: 'text-not-utf8', stage: 'ingest', file, message: `${file} is not valid UTF-8; read as Windows-1252`, hint: 'save the file as UTF-8' }],
+    };
+  }
+}

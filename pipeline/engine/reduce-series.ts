@@ -1,0 +1,261 @@
+import { createHash } from 'node:crypto';
+import { join, resolve } from 'node:path';
+import type { Diagnostic } from '../core/diagnostics/diagnostic.js';
+import { liveFraction, type LiveFraction } from '../core/counting/live-fraction.js';
+import type { MeasuredPeak, PeakRequest } from '../core/counting/peak-window.js';
+import type { CrossSectionRow, QcRow, YieldRow } from '../core/model/result-rows.js';
+import { resolveTarget } from '../core/model/resolve-target.js';
+import type { IngestedSeries, RunRecord } from '../core/model/series-model.js';
+import { ABUNDANCE_EDITION, MASS_TABLE_EDITION, nuclide } from '../core/physics/nuclides.js';
+import { CODATA2018 } from '../core/physics/codata2018.js';
+import { ingest } from '../../stages/ingest/index.js';
+import { calibrate } from '../../stages/calibrate/index.js';
+import { normalize, planReferenceWindow, referenceComposition } from '../../stages/normalize/index.js';
+import { extract, measuredKey, planPeakWindows } from '../../stages/extract/index.js';
+import { report } from '../../stages/report/index.js';
+import { writeFileAtomic } from './atomic-write.js';
+import { EXIT } from './exit-codes.js';
+import type { MeasureResult, MeasureTask } from './measure-run.js';
+import { readSeriesFiles } from './read-series-files.js';
+import { runMeasurements } from './run-measurements.js';
+import { canonicalJson } from './canonical-json.js';
+import { SOFTWARE } from './software.js';
+
+export interface ReduceOptions {
+  seriesDir: string;
+  outDir: string;
+  jobs: number;
+  html: boolean;
+  commandLine: string[];
+}
+
+export interface ReduceResult {
+  exitCode: number;
+  series?: string;
+  outSeriesDir?: string;
+  summaryPath?: string;
+  diagnostics: Diagnostic[];
+  counts: { runs: number; reduced: number; setAside: number; notReduced: number; rows: number };
+}
+
+const byRunOrder = (index: Map<string, number>) => (a: Diagnostic, b: Diagnostic) =>
+  (a.run === undefined ? -1 : (index.get(a.run) ?? 1e9)) - (b.run === undefined ? -1 : (index.get(b.run) ?? 1e9));
+
+/** The whole reduction of one series: ingest → calibrate → measure → normalize → extract → report. */
+export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
+  const startedAt = new Date();
+  const seriesDir = resolve(opts.seriesDir);
+  const files = readSeriesFiles(seriesDir);
+  const ing = ingest(files.input);
+  const emptyCounts = { runs: 0, reduced: 0, setAside: 0, notReduced: 0, rows: 0 };
+  if (!ing.ok) return { exitCode: EXIT.usage, diagnostics: [...files.diagnostics, ...ing.diagnostics], counts: emptyCounts };
+  const series: IngestedSeries = ing.series;
+  const config = series.config;
+  const setAside = new Map(series.setAside);
+  const aside = (run: string, ds: Diagnostic[]) => setAside.set(run, [...(setAside.get(run) ?? []), ...ds]);
+  const diagnostics: Diagnostic[] = [...files.diagnostics, ...series.diagnostics];
+
+  const reducible = (r: RunRecord) => (r.kind === 'reference' || r.kind === 'sample') && !setAside.has(r.run);
+  const cal = calibrate({ runs: series.runs.filter(reducible), versions: series.calibrations, detectorIds: config.detectors.map((d) => d.id), runlogFile: 'runlog.csv' });
+  for (const [run, ds] of cal.setAside) aside(run, ds);
+
+  // Plan what to measure in every usable run.
+  const projectile = nuclide(config.beam.projectile);
+  const refComp = referenceComposition(config);
+  const resolved = new Map(config.targets.map((t) => [t.id, resolveTarget(t)]));
+  const planProblems = new Map<string, Map<string, string>>();
+  const tasks: MeasureTask[] = [];
+  for (const run of series.runs) {
+    if (!reducible(run)) continue;
+    const rc = cal.byRun.get(run.run)!;
+    let requests: PeakRequest[];
+    if (run.kind === 'reference') requests = config.detectors.map((d) => planReferenceWindow(projectile, refComp, d, run.beamEnergyKeV));
+    else {
+      const planned = planPeakWindows(config, projectile, run, resolved.get(run.target)!);
+      requests = planned.filter((p) => p.problem === undefined).map((p) => p.request!);
+      const problems = new Map<string, string>();
+      for (const p of planned) if (p.problem !== undefined) problems.set(measuredKey(p.request!.detector, p.peakLabel), p.problem);
+      if (problems.size) planProblems.set(run.run, problems);
+    }
+    tasks.push({
+      run: run.run,
+      path: join(seriesDir, series.spectrumFiles.get(run.run)!),
+      file: series.spectrumFiles.get(run.run)!,
+      detectorIds: config.detectors.map((d) => d.id),
+      calibrations: Object.fromEntries(rc.detectors),
+      requests,
+      widths: config.extract,
+    });
+  }
+
+  // Measure (streamed, both cores).
+  const results = new Map<string, MeasureResult>();
+  await runMeasurements(tasks, opts.jobs, (r) => {
+    if (!r.ok) aside(r.run, r.diagnostics.filter((d) => d.severity === 'error'));
+    diagnostics.push(...r.diagnostics.filter((d) => d.severity !== 'error'));
+    results.set(r.run, r);
+  });
+
+  const live = new Map<string, Map<string, LiveFraction>>();
+  const usable = (kind: RunRecord['kind']) => series.runs.filter((r) => r.kind === kind && !setAside.has(r.run) && results.get(r.run)?.ok === true);
+  const referenceRuns = usable('reference');
+  const sampleRuns = usable('sample');
+  for (const r of [...referenceRuns, ...sampleRuns]) {
+    live.set(r.run, new Map(config.detectors.map((d) => [d.id, liveFraction(series.scalers?.get(r.run)?.get(d.id), r.realTimeS)])));
+  }
+  const peaksByRun = new Map<string, Map<string, MeasuredPeak>>();
+  for (const [run, res] of results) if (res.ok) peaksByRun.set(run, new Map(res.peaks.map((p) => [measuredKey(p.request.detector, p.request.key), p])));
+
+  const norm = normalize({
+    config,
+    referenceRuns,
+    sampleRuns,
+    measured: new Map(
+      referenceRuns.map((r) => [
+        r.run,
+        new Map(config.detectors.map((d) => [d.id, { peak: peaksByRun.get(r.run)!.get(measuredKey(d.id, `reference ${refComp.element}`))!, live: live.get(r.run)!.get(d.id)! }])),
+      ]),
+    ),
+  });
+  diagnostics.push(...norm.diagnostics);
+
+  const ext = extract({
+    config,
+    sampleRuns,
+    measured: peaksByRun,
+    live,
+    normalization: norm.applied,
+    calibrationVersion: new Map([...cal.byRun].map(([run, c]) => [run, c.version])),
+    planProblems,
+  });
+  diagnostics.push(...ext.diagnostics);
+
+  const { yields, qc } = auditRows(series, setAside, results, live, cal.byRun);
+  for (const ds of setAside.values()) diagnostics.push(...ds);
+  const runIndex = new Map(series.runs.map((r) => [r.run, r.index]));
+  diagnostics.sort(byRunOrder(runIndex));
+
+  // Provenance.
+  const spectrumHashes = [...results.values()].filter((r) => r.sha256 !== '').map((r) => [series.spectrumFiles.get(r.run)!, r.sha256] as const);
+  const inputHashes = Object.fromEntries([...files.hashes, ...spectrumHashes].sort(([a], [b]) => a.localeCompare(b)));
+  const inputsSha = createHash('sha256').update(Object.entries(inputHashes).map(([f, h]) => `${h}  ${f}\n`).join('')).digest('hex');
+  const configSha = createHash('sha256').update(canonicalJson(config)).digest('hex');
+  const calibrationVersions = [...new Set([...cal.byRun.values()].map((c) => c.version))].sort();
+  const counts = {
+    runs: series.runs.length,
+    reduced: referenceRuns.length + sampleRuns.length,
+    setAside: setAside.size,
+    notReduced: series.runs.filter((r) => r.kind === 'calibration' || r.kind === 'background').length,
+    rows: ext.rows.length,
+  };
+  const exitCode = setAside.size > 0 ? EXIT.someSetAside : EXIT.ok;
+  const outSeriesDir = join(resolve(opts.outDir), config.series);
+  const manifest = {
+    software: SOFTWARE,
+    series: config.series,
+    series_dir: seriesDir,
+    command_line: opts.commandLine,
+    started_at: startedAt.toISOString(),
+    finished_at: '',
+    node: process.version,
+    config_sha256: configSha,
+    inputs_sha256: inputsSha,
+    input_files: inputHashes,
+    calibration_versions: calibrationVersions,
+    editions: { constants: CODATA2018.edition, masses: MASS_TABLE_EDITION, abundances: ABUNDANCE_EDITION, screening: config.normalization.screening },
+    counts,
+    exit_code: exitCode,
+  };
+  const rep = await report({
+    config,
+    rows: ext.rows,
+    referenceElement: norm.element,
+    points: norm.points,
+    detectors: norm.detectors,
+    yields,
+    qc,
+    diagnostics,
+    manifest: { ...manifest, finished_at: new Date().toISOString() },
+    html: opts.html,
+  });
+  for (const f of rep.files) writeFileAtomic(join(outSeriesDir, f.name), f.bytes);
+  writeFileAtomic(join(outSeriesDir, 'diagnostics.json'), new TextEncoder().encode(`${JSON.stringify(diagnostics, null, 1)}\n`));
+  return {
+    exitCode,
+    series: config.series,
+    outSeriesDir,
+    summaryPath: opts.html ? join(outSeriesDir, 'summary.html') : undefined,
+    diagnostics,
+    counts,
+  };
+}
+
+function auditRows(
+  series: IngestedSeries,
+  setAside: ReadonlyMap<string, Diagnostic[]>,
+  results: ReadonlyMap<string, MeasureResult>,
+  live: ReadonlyMap<string, ReadonlyMap<string, LiveFraction>>,
+  calByRun: ReadonlyMap<string, { version: string }>,
+): { yields: YieldRow[]; qc: QcRow[] } {
+  const yields: YieldRow[] = [];
+  const qc: QcRow[] = [];
+  const dets = series.config.detectors;
+  for (const run of series.runs) {
+    const res = results.get(run.run);
+    const reasons = setAside.get(run.run);
+    const calVersion = calByRun.get(run.run)?.version ?? '';
+    dets.forEach((d, di) => {
+      const lf = live.get(run.run)?.get(d.id);
+      const peaks = res?.ok ? res.peaks.filter((p) => p.request.detector === d.id) : [];
+      const strongest = peaks.filter((p) => p.net !== null).sort((a, b) => b.net!.net - a.net!.net)[0];
+      const first = reasons?.[0];
+      const status: QcRow['status'] = reasons ? 'set-aside' : run.kind === 'calibration' || run.kind === 'background' ? 'not-reduced' : 'reduced';
+      const where = first ? `${first.file ?? ''}${first.line !== undefined ? `:${first.line}` : ''}${first.column !== undefined ? `:${first.column}` : ''}` : '';
+      qc.push({
+        run: run.run,
+        kind: run.kind,
+        detector: d.id,
+        status,
+        reason: first ? `${where ? `${where}: ` : ''}${first.message}${reasons!.length > 1 ? ` (+${reasons!.length - 1} more)` : ''}` : status === 'not-reduced' ? `kind ${run.kind} is not reduced by xsred reduce` : '',
+        rule: first?.rule ?? '',
+        calibrationVersion: calVersion,
+        liveFraction: lf?.value ?? Number.NaN,
+        liveFractionUnc: lf?.unc ?? Number.NaN,
+        liveSource: lf?.source ?? '',
+        totalCounts: res?.ok ? res.totals[di]! : Number.NaN,
+        channelCount: res?.ok ? res.channelCount : Number.NaN,
+        peakShiftKeV: strongest?.shiftKeV ?? Number.NaN,
+        flags: [],
+      });
+      if (reasons) return;
+      for (const p of peaks) {
+        const w = p.window;
+        yields.push({
+          run: run.run,
+          kind: run.kind,
+          detector: d.id,
+          peak: p.request.key,
+          expectedEnergyKeV: w.expectedEnergyKeV,
+          expectedChannel: w.expectedChannel,
+          fwhmKeV: w.fwhmKeV,
+          peakLo: w.peak?.lo ?? Number.NaN,
+          peakHi: w.peak?.hi ?? Number.NaN,
+          leftLo: w.left?.lo ?? Number.NaN,
+          leftHi: w.left?.hi ?? Number.NaN,
+          rightLo: w.right?.lo ?? Number.NaN,
+          rightHi: w.right?.hi ?? Number.NaN,
+          grossCounts: p.net?.gross ?? Number.NaN,
+          backgroundCounts: p.net?.background ?? Number.NaN,
+          backgroundUnc: p.net ? Math.sqrt(p.net.backgroundVariance) : Number.NaN,
+          netCounts: p.net?.net ?? Number.NaN,
+          netCountsUnc: p.net ? Math.sqrt(p.net.netVariance) : Number.NaN,
+          centroidShiftKeV: p.shiftKeV,
+          flags: [...w.flags],
+        });
+      }
+    });
+  }
+  return { yields, qc };
+}
+
+export type { CrossSectionRow };

@@ -1,0 +1,38 @@
+import type { SimulationSpec } from './simulation-spec.js';
+import { yamlFlow, yamlScalar } from './yaml-flow.js';
+
+/**
+ * series.yaml of a simulated series: what the experimenter would write. Detectors carry the
+ * nominal solid angle only; cross-section truths, true solid angles and every other
+ * simulation-only value stay out (they are in truth.csv and the spec).
+ */
+export function seriesYamlText(spec: SimulationSpec): string {
+  const lines: string[] = [
+    `# Run series simulated by xsred from a simulation spec (seed ${spec.seed}); the truth is in truth.csv.`,
+    `series: ${yamlScalar(spec.series)}`,
+    `title: ${yamlScalar(spec.title)}`,
+    `beam: ${yamlFlow({ projectile: spec.beam.projectile, charge_state: spec.beam.charge_state })}`,
+    'detectors:',
+    ...spec.detectors.map((d) => `  - ${yamlFlow({
+      id: d.id, angle_deg: d.angle_deg, angle_unc_deg: d.angle_unc_deg, resolution_fwhm_keV: d.resolution_fwhm_keV, solid_angle_msr: d.solid_angle_msr,
+    })}`),
+    'targets:',
+  ];
+  for (const t of spec.targets) {
+    lines.push(`  - id: ${yamlScalar(t.id)}`, '    layers:');
+    for (const l of t.layers) {
+      lines.push(`      - ${yamlFlow({
+        composition: l.composition,
+        areal_density_1e15_per_cm2: l.areal_density_1e15_per_cm2,
+        areal_density_ug_per_cm2: l.areal_density_ug_per_cm2,
+        areal_density_unc_rel: l.areal_density_unc_rel,
+      })}`);
+    }
+  }
+  lines.push('peaks:');
+  for (const p of spec.peaks) {
+    lines.push(`  - ${yamlFlow({ label: p.label, target_nuclide: p.target_nuclide, excitation_keV: p.excitation_keV, q_value_keV: p.q_value_keV, method: p.method })}`);
+  }
+  lines.push(`normalization: ${yamlFlow(spec.normalization as Record<string, string | number | undefined>)}`);
+  return `${lines.join('\n')}\n`;
+}

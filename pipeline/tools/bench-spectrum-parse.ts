@@ -1,0 +1,65 @@
+/**
+ * Benchmark of `parseSpectrumCsv`: builds one in-memory spectrum file of 4,096 channels ×
+ * 16 detectors (counts drawn from a seeded generator: a falling background with a few
+ * peaks, so the file is about the size of a real one, ≈ 180 kB), parses it repeatedly on
+ * one core and prints the throughput.
+ *
+ *   npx tsx pipeline/tools/bench-spectrum-parse.ts [repetitions=200]
+ */
+import { cpus } from 'node:os';
+import { parseSpectrumCsv } from '../core/formats/spectrum-csv.js';
+
+const CHANNELS = 4096;
+const DETECTORS = 16;
+
+/** Mulberry32, a small seeded 32-bit generator; uniform in [0, 1). */
+function mulberry32(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+function benchSpectrumText(seed: number): string {
+  const random = mulberry32(seed);
+  const gauss = (): number => Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random());
+  const ids = Array.from({ length: DETECTORS }, (_, k) => `d${String(k + 1).padStart(2, '0')}`);
+  const lines = [`channel,${ids.join(',')}`];
+  const peaks = [900, 1700, 2300, 3100, 3650];
+  for (let ch = 0; ch < CHANNELS; ch++) {
+    const row: number[] = [ch];
+    for (let k = 0; k < DETECTORS; k++) {
+      let mean = 3 * Math.exp(-ch / 700) + 0.4;
+      for (const p of peaks) mean += 900 * Math.exp(-0.5 * ((ch - p - 10 * k) / 6) ** 2);
+      row.push(Math.max(0, Math.round(mean + Math.sqrt(mean) * gauss())));
+    }
+    lines.push(row.join(','));
+  }
+  return `${lines.join('\n')}\n`;
+}
+
+function main(): void {
+  const repetitions = Number(process.argv[2] ?? 200);
+  const bytes = new TextEncoder().encode(benchSpectrumText(20260301));
+  let checksum = 0;
+  for (let i = 0; i < 20; i++) checksum += parseSpectrumCsv(bytes, 'bench.csv').spectrum?.counts[3][950] ?? 0;
+  const t0 = process.hrtime.bigint();
+  for (let i = 0; i < repetitions; i++) {
+    const { spectrum } = parseSpectrumCsv(bytes, 'bench.csv');
+    if (spectrum === null) throw new Error('benchmark spectrum failed to parse');
+    checksum += spectrum.counts[i % DETECTORS][i % CHANNELS];
+  }
+  const seconds = Number(process.hrtime.bigint() - t0) / 1e9;
+  const megabytes = (bytes.length * repetitions) / 1e6;
+  const perFileMs = (seconds / repetitions) * 1e3;
+  console.log(`spectrum parse: ${CHANNELS} channels x ${DETECTORS} detectors, ${(bytes.length / 1e3).toFixed(1)} kB per file, ${repetitions} parses`);
+  console.log(`  ${(megabytes / seconds).toFixed(0)} MB/s on one core, ${perFileMs.toFixed(3)} ms per file`);
+  console.log(`  1,000 such runs: ${(perFileMs).toFixed(2)} s of parsing on one core`);
+  console.log(`  machine: ${cpus()[0]?.model ?? 'unknown'} (${cpus().length} cores), Node ${process.version}; checksum ${checksum}`);
+}
+
+main();

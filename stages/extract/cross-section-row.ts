@@ -1,0 +1,129 @@
+import type { DetectorConfig, PeakConfig, SeriesConfig } from '../../pipeline/core/config/series-schema.js';
+import type { LiveFraction } from '../../pipeline/core/counting/live-fraction.js';
+import type { MeasuredPeak } from '../../pipeline/core/counting/peak-window.js';
+import { peakKinematics } from '../../pipeline/core/kinematics/peak-kinematics.js';
+import { screenedRutherfordLab } from '../../pipeline/core/kinematics/screened-rutherford.js';
+import type { AppliedNormalization, CrossSectionRow } from '../../pipeline/core/model/result-rows.js';
+import type { RunRecord } from '../../pipeline/core/model/series-model.js';
+import { nuclide, type Nuclide } from '../../pipeline/core/physics/nuclides.js';
+import { MB_TO_CM2, microCoulombToParticles } from '../../pipeline/core/physics/units.js';
+
+export interface RowInput {
+  config: SeriesConfig;
+  projectile: Nuclide;
+  run: RunRecord;
+  detector: DetectorConfig;
+  peak: PeakConfig;
+  measured: MeasuredPeak | null;
+  live: LiveFraction;
+  normalization: AppliedNormalization | null;
+  nuclide: { atomsPerCm2: number; relUnc: number };
+  calibrationVersion: string;
+  extraFlags: string[];
+}
+
+const NaN_ = Number.NaN;
+
+/**
+ * The cross section of one sample run × detector × peak, thin target:
+ *
+ *   dσ/dΩ_lab = N_net / (N_beam · n · ΔΩ_eff · f_live),   N_beam = Q/(q e)
+ *   dσ/dΩ_cm  = dσ/dΩ_lab · dΩ_lab/dΩ_cm
+ *   σ/σ_R     = dσ/dΩ_lab / (σ_R,lab(E, θ) · F_screen)   (elastic peaks)
+ *
+ * Uncertainties, first order for a product of powers (JCGM 100:2008, GUM §5.1.6):
+ *   stat: Poisson counting of the peak and its background, and the run's live-fraction
+ *         uncertainty (pulser statistics) — independent between runs;
+ *   sys:  sample areal density; the normalization (reference counting, live time, beam
+ *         energy, reference areal density); the detector angle through ∂lnσ_R,ref/∂θ;
+ *         for σ/σ_R also the run's beam energy through ∂lnσ_R/∂E and the angle through
+ *         ∂ln(σ_R,ref/σ_R)/∂θ. The beam energy and angle are quoted with their own
+ *         uncertainties as coordinates of the point.
+ */
+export function crossSectionRow(x: RowInput): CrossSectionRow {
+  const { config, projectile, run, detector, peak, measured, live, normalization } = x;
+  const flags = [...x.extraFlags, ...(measured?.window.flags ?? []), ...(normalization?.flags ?? [])];
+  const target = nuclide(peak.target_nuclide);
+  const kin = peakKinematics(projectile, peak.target_nuclide, peak.excitation_keV, peak.q_value_keV, run.beamEnergyKeV, detector.angle_deg);
+  const k = kin.ok ? kin.value : null;
+  if (!kin.ok) flags.push('kinematically-forbidden');
+  const elastic = peak.excitation_keV === 0 && (peak.q_value_keV === undefined || peak.q_value_keV === 0);
+  let rutherford = NaN_;
+  let screening = NaN_;
+  let dLnRDE = 0;
+  let dLnRDTheta = 0;
+  if (elastic && projectile.massU < target.massU) {
+    const r = screenedRutherfordLab(projectile, target, run.beamEnergyKeV, detector.angle_deg, config.normalization.screening);
+    rutherford = r.sigmaMbPerSr;
+    screening = r.screeningFactor;
+    dLnRDE = r.dLnSigmaDEnergyPerKeV;
+    dLnRDTheta = r.dLnSigmaDThetaPerDeg;
+  }
+  const net = measured?.net ?? null;
+  if (measured !== null && net === null) flags.push('peak-not-measured');
+  if (net !== null && !(net.net > 0)) flags.push('net-not-positive');
+  if (normalization === null) flags.push('no-normalization');
+  const beam = microCoulombToParticles(run.chargeUC, config.beam.charge_state);
+  let lab = NaN_;
+  let labStat = NaN_;
+  let labSys = NaN_;
+  let ratio = NaN_;
+  let ratioStat = NaN_;
+  let ratioSys = NaN_;
+  if (net !== null && normalization !== null) {
+    const perCount = 1 / (beam * x.nuclide.atomsPerCm2 * (normalization.solidAngleMsr / 1000) * live.value) / MB_TO_CM2;
+    lab = net.net * perCount;
+    const relLive = live.unc / live.value;
+    labStat = Math.hypot(Math.sqrt(net.netVariance) * perCount, lab * relLive);
+    const n = normalization;
+    const angleRef = n.dLnSigmaDThetaPerDeg * detector.angle_unc_deg;
+    const normRel = Math.hypot(n.relCounting, n.relLive, n.relEnergy, n.relAreal);
+    labSys = Math.abs(lab) * Math.hypot(x.nuclide.relUnc, normRel, angleRef);
+    if (Number.isFinite(rutherford)) {
+      ratio = lab / rutherford;
+      ratioStat = labStat / rutherford;
+      const angleRatio = (n.dLnSigmaDThetaPerDeg - dLnRDTheta) * detector.angle_unc_deg;
+      const energyRatio = dLnRDE * run.beamEnergyUncKeV;
+      ratioSys = Math.abs(ratio) * Math.hypot(x.nuclide.relUnc, normRel, angleRatio, energyRatio);
+    }
+  }
+  const j = k?.jacobianLabPerCm ?? NaN_;
+  return {
+    run: run.run,
+    detector: detector.id,
+    peak: peak.label,
+    target: run.target,
+    targetNuclide: peak.target_nuclide,
+    beamEnergyKeV: run.beamEnergyKeV,
+    beamEnergyUncKeV: run.beamEnergyUncKeV,
+    angleLabDeg: detector.angle_deg,
+    angleLabUncDeg: detector.angle_unc_deg,
+    angleCmDeg: k?.thetaCmDeg ?? NaN_,
+    peakEnergyKeV: k?.energyKeV ?? NaN_,
+    qValueKeV: k?.qValueKeV ?? NaN_,
+    grossCounts: net?.gross ?? NaN_,
+    backgroundCounts: net?.background ?? NaN_,
+    netCounts: net?.net ?? NaN_,
+    netCountsUnc: net ? Math.sqrt(net.netVariance) : NaN_,
+    liveFraction: live.value,
+    liveFractionUnc: live.unc,
+    chargeUC: run.chargeUC,
+    nuclideArealDensity1e15PerCm2: x.nuclide.atomsPerCm2 / 1e15,
+    solidAngleMsr: normalization?.solidAngleMsr ?? NaN_,
+    referenceRuns: normalization ? normalization.referenceRuns.join('+') : '',
+    crossSectionLabMbPerSr: lab,
+    crossSectionLabStatMbPerSr: labStat,
+    crossSectionLabSysMbPerSr: labSys,
+    jacobianLabPerCm: j,
+    crossSectionCmMbPerSr: lab * j,
+    crossSectionCmStatMbPerSr: labStat * j,
+    crossSectionCmSysMbPerSr: labSys * j,
+    rutherfordLabMbPerSr: rutherford,
+    screeningFactor: screening,
+    ratioToRutherford: ratio,
+    ratioToRutherfordStat: ratioStat,
+    ratioToRutherfordSys: ratioSys,
+    calibrationVersion: x.calibrationVersion,
+    flags: [...new Set(flags)].sort(),
+  };
+}

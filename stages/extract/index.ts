@@ -1,0 +1,95 @@
+import type { Diagnostic } from '../../pipeline/core/diagnostics/diagnostic.js';
+import type { SeriesConfig } from '../../pipeline/core/config/series-schema.js';
+import type { LiveFraction } from '../../pipeline/core/counting/live-fraction.js';
+import type { MeasuredPeak } from '../../pipeline/core/counting/peak-window.js';
+import { peakKinematics } from '../../pipeline/core/kinematics/peak-kinematics.js';
+import type { AppliedNormalization, CrossSectionRow } from '../../pipeline/core/model/result-rows.js';
+import { nuclideAreal, resolveTarget } from '../../pipeline/core/model/resolve-target.js';
+import type { RunRecord } from '../../pipeline/core/model/series-model.js';
+import { nuclide } from '../../pipeline/core/physics/nuclides.js';
+import { crossSectionRow } from './cross-section-row.js';
+import { interferenceFlags, type KnownLine } from './interference-flags.js';
+
+export { planPeakWindows, type PlannedPeak } from './plan-peak-windows.js';
+
+export interface ExtractInput {
+  config: SeriesConfig;
+  /** Usable sample runs, runlog order. */
+  sampleRuns: readonly RunRecord[];
+  /** Run → `${detector}\t${peak label}` → measured peak. */
+  measured: ReadonlyMap<string, ReadonlyMap<string, MeasuredPeak>>;
+  live: ReadonlyMap<string, ReadonlyMap<string, LiveFraction>>;
+  normalization: ReadonlyMap<string, ReadonlyMap<string, AppliedNormalization | null>>;
+  calibrationVersion: ReadonlyMap<string, string>;
+  /** Problems found while planning (kinematically forbidden peaks): run → `${detector}\t${label}` → reason. */
+  planProblems: ReadonlyMap<string, ReadonlyMap<string, string>>;
+}
+
+export interface ExtractOutput {
+  rows: CrossSectionRow[];
+  diagnostics: Diagnostic[];
+}
+
+export const measuredKey = (detector: string, peak: string) => `${detector}\t${peak}`;
+
+/**
+ * extract: for each sample run × detector × configured peak of a nuclide in the run's target,
+ * dσ/dΩ (lab, CM), σ/σ_R and their statistical and systematic uncertainties.
+ */
+export function extract(input: ExtractInput): ExtractOutput {
+  const { config } = input;
+  const projectile = nuclide(config.beam.projectile);
+  const rows: CrossSectionRow[] = [];
+  const diagnostics: Diagnostic[] = [];
+  const resolvedByTarget = new Map(config.targets.map((t) => [t.id, resolveTarget(t)]));
+  for (const run of input.sampleRuns) {
+    const resolved = resolvedByTarget.get(run.target)!;
+    const nuclidesHere = [...new Set(resolved.map((r) => r.nuclide))];
+    for (const det of config.detectors) {
+      // Every peak this spectrum is expected to hold: each nuclide's elastic peak and the configured peaks.
+      const lines: KnownLine[] = nuclidesHere.map((n) => {
+        const k = peakKinematics(projectile, n, 0, undefined, run.beamEnergyKeV, det.angle_deg);
+        return { name: `${n} elastic`, energyKeV: k.ok ? k.value.energyKeV : Number.NaN };
+      });
+      for (const p of config.peaks) {
+        if (!nuclidesHere.includes(p.target_nuclide) || (p.excitation_keV === 0 && p.q_value_keV === undefined)) continue;
+        const k = peakKinematics(projectile, p.target_nuclide, p.excitation_keV, p.q_value_keV, run.beamEnergyKeV, det.angle_deg);
+        lines.push({ name: p.label, energyKeV: k.ok ? k.value.energyKeV : Number.NaN });
+      }
+      for (const peak of config.peaks) {
+        const areal = nuclideAreal(resolved, peak.target_nuclide);
+        if (areal === null) continue;
+        const key = measuredKey(det.id, peak.label);
+        const measured = input.measured.get(run.run)?.get(key) ?? null;
+        const problem = input.planProblems.get(run.run)?.get(key);
+        if (problem !== undefined) {
+          diagnostics.push({ severity: 'warning', rule: 'peak-kinematics', stage: 'extract', run: run.run, detector: det.id, message: `peak "${peak.label}": ${problem}` });
+        }
+        const own = peak.excitation_keV === 0 && peak.q_value_keV === undefined ? `${peak.target_nuclide} elastic` : peak.label;
+        const extraFlags = measured ? interferenceFlags(measured.window, own, lines) : [];
+        const live = input.live.get(run.run)?.get(det.id) ?? { value: 1, unc: 0, source: 'none' as const };
+        if (live.source === 'none') extraFlags.push('no-live-time');
+        const shiftTol = config.extract.shift_tolerance_fwhm * det.resolution_fwhm_keV;
+        if (measured && measured.net && Number.isFinite(measured.shiftKeV) && Math.abs(measured.shiftKeV) > shiftTol && measured.net.net > 5 * Math.sqrt(measured.net.netVariance)) {
+          extraFlags.push('peak-shifted');
+        }
+        rows.push(
+          crossSectionRow({
+            config,
+            projectile,
+            run,
+            detector: det,
+            peak,
+            measured,
+            live,
+            normalization: input.normalization.get(run.run)?.get(det.id) ?? null,
+            nuclide: areal,
+            calibrationVersion: input.calibrationVersion.get(run.run) ?? '',
+            extraFlags,
+          }),
+        );
+      }
+    }
+  }
+  return { rows, diagnostics };
+}

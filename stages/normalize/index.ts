@@ -1,0 +1,96 @@
+import type { Diagnostic } from '../../pipeline/core/diagnostics/diagnostic.js';
+import type { SeriesConfig } from '../../pipeline/core/config/series-schema.js';
+import type { MeasuredPeak } from '../../pipeline/core/counting/peak-window.js';
+import type { LiveFraction } from '../../pipeline/core/counting/live-fraction.js';
+import type { RunRecord } from '../../pipeline/core/model/series-model.js';
+import { nuclide } from '../../pipeline/core/physics/nuclides.js';
+import { applyBracketing } from './apply-bracketing.js';
+import type { AppliedNormalization, DetectorNormalization, ReferencePoint } from '../../pipeline/core/model/result-rows.js';
+import { referenceComposition } from './reference-nuclides.js';
+import { referencePoint, runRelUnc } from './reference-point.js';
+
+export { planReferenceWindow } from './plan-reference-window.js';
+export { referenceComposition, type ReferenceComposition } from './reference-nuclides.js';
+
+export interface NormalizeInput {
+  config: SeriesConfig;
+  /** Usable reference runs, runlog order. */
+  referenceRuns: readonly RunRecord[];
+  /** Usable sample runs. */
+  sampleRuns: readonly RunRecord[];
+  /** Reference run → detector → the measured reference peak and the live fraction. */
+  measured: ReadonlyMap<string, ReadonlyMap<string, { peak: MeasuredPeak; live: LiveFraction }>>;
+}
+
+export interface NormalizeOutput {
+  element: string;
+  points: ReferencePoint[];
+  detectors: DetectorNormalization[];
+  /** Sample run → detector → normalization (null: no usable reference for that detector). */
+  applied: Map<string, Map<string, AppliedNormalization | null>>;
+  diagnostics: Diagnostic[];
+}
+
+/**
+ * normalize (method `reference-run`): each reference run × detector gives an effective solid
+ * angle from the Rutherford yield of the reference element; reference runs of a detector
+ * that disagree beyond their uncertainties, or an effective solid angle far from the nominal
+ * one, are flagged; each sample run gets the bracketing normalization.
+ */
+export function normalize(input: NormalizeInput): NormalizeOutput {
+  const { config } = input;
+  const projectile = nuclide(config.beam.projectile);
+  const ref = referenceComposition(config);
+  const diagnostics: Diagnostic[] = [];
+  const points: ReferencePoint[] = [];
+  const detectors: DetectorNormalization[] = [];
+  const byDetector = new Map<string, ReferencePoint[]>();
+  for (const det of config.detectors) {
+    const list: ReferencePoint[] = [];
+    for (const run of input.referenceRuns) {
+      const m = input.measured.get(run.run)?.get(det.id);
+      if (m === undefined) continue;
+      const p = referencePoint(config, projectile, ref, run, det, m.peak, m.live);
+      if (p.solidAngleMsr === null) {
+        diagnostics.push({ severity: 'warning', rule: 'reference-unusable', stage: 'normalize', run: run.run, detector: det.id, message: `reference peak of ${ref.element} could not be used (${p.flags.join(', ')}); this run does not normalize detector ${det.id}` });
+      }
+      list.push(p);
+    }
+    const usable = list.filter((p) => p.solidAngleMsr !== null);
+    let meanMsr: number | null = null;
+    let chi2 = 0;
+    if (usable.length > 0) {
+      const w = usable.map((p) => 1 / (runRelUnc(p) * p.solidAngleMsr!) ** 2);
+      const finite = w.every((x) => Number.isFinite(x));
+      const weights = finite ? w : usable.map(() => 1);
+      const sw = weights.reduce((a, b) => a + b, 0);
+      meanMsr = usable.reduce((s, p, i) => s + weights[i]! * p.solidAngleMsr!, 0) / sw;
+      for (const p of usable) {
+        const sigma = runRelUnc(p) * p.solidAngleMsr!;
+        const pull = sigma > 0 ? (p.solidAngleMsr! - meanMsr) / sigma : 0;
+        chi2 += pull * pull;
+        if (usable.length > 1 && Math.abs(pull) > config.normalization.outlier_pull) {
+          p.flags.push('reference-outlier');
+          diagnostics.push({ severity: 'warning', rule: 'reference-outlier', stage: 'normalize', run: p.run, detector: det.id, message: `effective solid angle ${p.solidAngleMsr!.toPrecision(4)} msr is ${pull.toFixed(1)} standard deviations from the detector's mean ${meanMsr.toPrecision(4)} msr`, hint: 'check this run\'s charge, live time and beam energy' });
+        }
+        const dev = p.solidAngleMsr! / det.solid_angle_msr - 1;
+        if (Math.abs(dev) > config.normalization.nominal_tolerance_rel) {
+          p.flags.push('solid-angle-off-nominal');
+          diagnostics.push({ severity: 'warning', rule: 'solid-angle-off-nominal', stage: 'normalize', run: p.run, detector: det.id, message: `effective solid angle ${p.solidAngleMsr!.toPrecision(4)} msr differs from the nominal ${det.solid_angle_msr} msr by ${(dev * 100).toFixed(1)} %`, expected: `within ±${config.normalization.nominal_tolerance_rel * 100} % of nominal` });
+        }
+      }
+    } else {
+      diagnostics.push({ severity: 'error', rule: 'normalization-missing', stage: 'normalize', detector: det.id, message: `no usable reference run for detector ${det.id}: its sample rows cannot be normalized` });
+    }
+    detectors.push({ detector: det.id, nominalMsr: det.solid_angle_msr, meanMsr, chi2, ndf: Math.max(usable.length - 1, 0) });
+    byDetector.set(det.id, list);
+    points.push(...list);
+  }
+  const applied = new Map<string, Map<string, AppliedNormalization | null>>();
+  for (const s of input.sampleRuns) {
+    const per = new Map<string, AppliedNormalization | null>();
+    for (const det of config.detectors) per.set(det.id, applyBracketing(s, byDetector.get(det.id) ?? []));
+    applied.set(s.run, per);
+  }
+  return { element: ref.element, points, detectors, applied, diagnostics };
+}

@@ -1,0 +1,89 @@
+import type { Diagnostic } from '../../pipeline/core/diagnostics/diagnostic.js';
+import type { SeriesConfig } from '../../pipeline/core/config/series-schema.js';
+import type { CrossSectionRow, DetectorNormalization, QcRow, ReferencePoint, YieldRow } from '../../pipeline/core/model/result-rows.js';
+import { buildTable, tableToIpcFile } from '../../pipeline/core/tables/arrow-table.js';
+import { NORMALIZATION_COLUMNS, QC_COLUMNS, YIELD_COLUMNS } from './audit-columns.js';
+import { CROSS_SECTION_COLUMNS } from './cross-section-columns.js';
+import { excitationChartSpec, renderSvg } from './excitation-chart.js';
+import { summaryHtml } from './summary-html.js';
+
+export { CROSS_SECTION_COLUMNS } from './cross-section-columns.js';
+export { NORMALIZATION_COLUMNS, QC_COLUMNS, YIELD_COLUMNS } from './audit-columns.js';
+
+export interface ReportInput {
+  config: SeriesConfig;
+  rows: readonly CrossSectionRow[];
+  referenceElement: string;
+  points: readonly ReferencePoint[];
+  detectors: readonly DetectorNormalization[];
+  yields: readonly YieldRow[];
+  qc: readonly QcRow[];
+  diagnostics: readonly Diagnostic[];
+  /** Everything manifest.json records (the engine supplies hashes, versions, command line, times). */
+  manifest: Record<string, unknown> & {
+    software: { name: string; version: string };
+    config_sha256: string;
+    inputs_sha256: string;
+    editions: Record<string, string>;
+    calibration_versions: string[];
+  };
+  /** Write summary.html (vega loads only then). */
+  html: boolean;
+}
+
+export interface OutputFile {
+  name: string;
+  bytes: Uint8Array;
+}
+
+/**
+ * report: the Arrow tables, manifest.json and the HTML summary, as bytes. The engine writes
+ * them (atomically). Tables hold no clock time, so the same inputs give identical bytes.
+ */
+export async function report(input: ReportInput): Promise<{ files: OutputFile[] }> {
+  const editions = input.manifest.editions;
+  const extra = Object.fromEntries(Object.entries(editions).map(([k, v]) => [`xsred.edition.${k}`, v]));
+  const meta = (table: string) => ({ table, extra: { ...extra, 'xsred.series': input.config.series, 'xsred.version': input.manifest.software.version } });
+  const nominal = new Map(input.detectors.map((d) => [d.detector, d.nominalMsr]));
+  const files: OutputFile[] = [
+    { name: 'cross_sections.arrow', bytes: tableToIpcFile(buildTable(CROSS_SECTION_COLUMNS, input.rows, meta('cross sections: one row per sample run × detector × peak'))) },
+    {
+      name: 'normalization.arrow',
+      bytes: tableToIpcFile(
+        buildTable(
+          NORMALIZATION_COLUMNS,
+          input.points.map((p) => ({ ...p, referenceElement: input.referenceElement, nominalMsr: nominal.get(p.detector) ?? Number.NaN })),
+          meta('normalization: one row per reference run × detector'),
+        ),
+      ),
+    },
+    { name: 'yields.arrow', bytes: tableToIpcFile(buildTable(YIELD_COLUMNS, input.yields, meta('yields: one row per measured peak window'))) },
+    { name: 'qc.arrow', bytes: tableToIpcFile(buildTable(QC_COLUMNS, input.qc, meta('quality control: one row per run × detector'))) },
+  ];
+  if (input.html) {
+    const charts: { title: string; svg: string }[] = [];
+    const ratioSpec = excitationChartSpec(input.rows, 'ratio');
+    if (ratioSpec) charts.push({ title: 'σ/σ_R against beam energy, per detector', svg: await renderSvg(ratioSpec) });
+    const other = input.rows.filter((r) => !Number.isFinite(r.ratioToRutherford));
+    const labSpec = excitationChartSpec(other, 'lab');
+    if (labSpec) charts.push({ title: 'dσ/dΩ (lab) against beam energy, peaks without a Rutherford ratio', svg: await renderSvg(labSpec) });
+    const html = summaryHtml({
+      config: input.config,
+      rows: input.rows,
+      points: input.points,
+      qc: input.qc,
+      diagnostics: input.diagnostics,
+      charts,
+      provenance: {
+        softwareVersion: input.manifest.software.version,
+        configHash: input.manifest.config_sha256,
+        inputHash: input.manifest.inputs_sha256,
+        editions,
+        calibrationVersions: input.manifest.calibration_versions,
+      },
+    });
+    files.push({ name: 'summary.html', bytes: new TextEncoder().encode(html) });
+  }
+  files.push({ name: 'manifest.json', bytes: new TextEncoder().encode(`${JSON.stringify(input.manifest, null, 2)}\n`) });
+  return { files };
+}
