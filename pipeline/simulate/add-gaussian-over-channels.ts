@@ -1,4 +1,4 @@
-import { normalIntervalProbability } from './math/normal-cdf.js';
+import { normalUpperTail } from './math/normal-cdf.js';
 
 /** FWHM = 2 √(2 ln 2) σ for a Gaussian (common practice). */
 export const FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);
@@ -13,6 +13,9 @@ const REACH_SIGMA = 9;
  *   content(ch) += Y · [Φ((E_hi − μ)/σ) − Φ((E_lo − μ)/σ)],   E_lo,hi = offset + gain·(ch ∓ ½)
  *
  * (E(ch) = offset + gain·ch is the centre of channel ch, DESIGN.md), σ = FWHM / (2√(2 ln 2)).
+ * Each channel edge u is evaluated once, as the tail beyond |u|, T(u) = Q(|u|) = ½ erfc(|u|/√2);
+ * a channel then holds T(a) − T(b) (both edges above the centre), T(b) − T(a) (both below) or
+ * 1 − T(a) − T(b) (straddling), so neither tail loses relative precision.
  * The part of the peak outside channels 0…N−1 is lost, as in a real ADC.
  * @param out expected counts per channel, modified in place
  * @param yieldCounts total expected counts of the peak
@@ -35,9 +38,16 @@ export function addGaussianOverChannels(
   const last = Math.min(out.length - 1, Math.ceil(centreChannel + reachChannels));
   const sigmaChannels = sigma / gainKeVPerChannel;
   let lower = (first - 0.5 - centreChannel) / sigmaChannels;
+  let lowerTail = normalUpperTail(Math.abs(lower));
   for (let ch = first; ch <= last; ch++) {
     const upper = (ch + 0.5 - centreChannel) / sigmaChannels;
-    out[ch] = out[ch]! + yieldCounts * normalIntervalProbability(lower, upper);
+    const upperTail = normalUpperTail(Math.abs(upper));
+    let p: number;
+    if (lower >= 0) p = lowerTail - upperTail;
+    else if (upper <= 0) p = upperTail - lowerTail;
+    else p = 1 - lowerTail - upperTail;
+    out[ch] = out[ch]! + yieldCounts * p;
     lower = upper;
+    lowerTail = upperTail;
   }
 }

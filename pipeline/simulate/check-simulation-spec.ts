@@ -51,7 +51,12 @@ export function checkSimulationSpec(spec: SimulationSpec, ctx: z.RefinementCtx):
       }
     }
   }));
+  const states = new Map<string, string>();
   spec.peaks.forEach((p, i) => {
+    const state = `${p.target_nuclide} at Q = ${p.q_value_keV ?? -p.excitation_keV} keV`;
+    const first = states.get(state);
+    if (first !== undefined) issue(['peaks', i, 'label'], `peak "${p.label}" is the same final state as "${first}" (${state}); declare it once`);
+    states.set(state, p.label);
     if (!known(p.target_nuclide)) issue(['peaks', i, 'target_nuclide'], `target_nuclide "${p.target_nuclide}" is not in AME2020`);
     if (p.excitation_keV > 0 && (p.truth === undefined || !('cm_mb_per_sr' in p.truth))) {
       issue(['peaks', i, 'truth'], `inelastic peak "${p.label}" needs truth: { cm_mb_per_sr: { base, resonances } }`);

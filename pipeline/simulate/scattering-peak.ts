@@ -19,9 +19,10 @@ export interface ScatteringPeak {
 }
 
 /**
- * The true cross section and kinematics of the projectile scattered (elastically, or leaving the
- * target nucleus at `excitationKeV`) into lab angle θ. Scattering of the projectile itself is
- * simulated (ejectile = projectile, Q = −Ex, ground-state masses in the Q-equation).
+ * The true cross section and kinematics of the projectile scattered into lab angle θ,
+ * elastically (Q = 0) or leaving the target nucleus excited (Q = −Ex, or a peak's q_value_keV).
+ * Scattering of the projectile itself is simulated (ejectile = projectile, ground-state masses
+ * in the Q-equation).
  *
  *   elastic, ratio model:  σ_lab = r(E) · σ_R,lab(E, θ) · F,   F = L'Ecuyer factor at E_cm = E·M2/(M1+M2) (or 1)
  *   CM model (isotropic):  σ_lab = σ_cm(E) / (dΩlab/dΩcm)
@@ -30,20 +31,21 @@ export interface ScatteringPeak {
  * Returns null where nothing reaches the detector or the case is outside what is simulated:
  * target not heavier than the projectile, below threshold, or γ = V_cm/v_cm >= 1 (two lab
  * energies at one angle).
+ * @param qValueKeV Q of the final state, keV (0 elastic, negative for an excited state)
  * @param beamEnergyKeV lab beam energy, keV;  @param thetaLabDeg detector angle, degrees
  * @param truth the declared model; undefined means σ/σ_R = 1 (elastic only)
  */
 export function scatteringPeak(
-  projectile: Nuclide, target: Nuclide, excitationKeV: number, beamEnergyKeV: number, thetaLabDeg: number,
+  projectile: Nuclide, target: Nuclide, qValueKeV: number, beamEnergyKeV: number, thetaLabDeg: number,
   truth: PeakTruth | undefined, screening: 'lecuyer' | 'none',
 ): ScatteringPeak | null {
   const m1 = projectile.massU;
   const m2 = target.massU;
   if (!(m2 > m1)) return null;
-  const params = { projectileMassU: m1, targetMassU: m2, ejectileMassU: m1, residualMassU: m2, beamEnergyKeV, qValueKeV: -excitationKeV };
+  const params = { projectileMassU: m1, targetMassU: m2, ejectileMassU: m1, residualMassU: m2, beamEnergyKeV, qValueKeV };
   let peakEnergyKeV: number;
   let gamma: number;
-  if (excitationKeV === 0) {
+  if (qValueKeV === 0) {
     peakEnergyKeV = elasticKinematicFactor(m1, m2, thetaLabDeg) * beamEnergyKeV;
     gamma = m1 / m2;
   } else {

@@ -1,5 +1,4 @@
 import { microCoulombToParticles, MB_TO_CM2 } from '../core/physics/index.js';
-import { addBackgroundOverChannels } from './add-background-over-channels.js';
 import { addGaussianOverChannels } from './add-gaussian-over-channels.js';
 import { sampleBinomial } from './random/sample-binomial.js';
 import { samplePoisson } from './random/sample-poisson.js';
@@ -44,12 +43,9 @@ export function simulateRun(ctx: SimulationContext, run: PlannedRun, defects: st
   const pendingTruth: { row: TruthRow; incident: number; detector: number }[] = [];
   spec.detectors.forEach((det, di) => {
     const cal = calibration.detectors.find((c) => c.id === det.id)!;
+    const background = ctx.backgroundPerUC(run.calibration, di);
     const spectrum = new Float64Array(nChannels);
-    addBackgroundOverChannels(spectrum, {
-      flatPerKeVPerUC: spec.background.flat_per_keV_per_uC,
-      exponentialPerKeVPerUC: spec.background.exponential_per_keV_per_uC,
-      exponentialDecayKeV: spec.background.exponential_decay_keV,
-    }, run.trueChargeUC, cal.offset_keV, cal.gain_keV_per_channel);
+    for (let ch = 0; ch < nChannels; ch++) spectrum[ch] = background[ch]! * run.trueChargeUC;
     for (const tn of nuclides) {
       for (const source of ctx.peakSources(tn.nuclide.name)) {
         const peak = scatteringPeak(projectile, tn.nuclide, source.qValueKeV, run.beamEnergyKeV, det.angle_deg, source.truth, spec.normalization.screening);

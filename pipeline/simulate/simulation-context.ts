@@ -1,4 +1,5 @@
 import type { Diagnostic } from '../core/diagnostics/diagnostic.js';
+import { addBackgroundOverChannels } from './add-background-over-channels.js';
 import { nuclide, type Nuclide } from '../core/physics/index.js';
 import type { SimulatedPeakSpec, SimulationSpec } from './simulation-spec.js';
 import { targetNuclides, type TargetNuclide } from './target-nuclides.js';
@@ -19,6 +20,8 @@ export interface SimulationContext {
   targets: Map<string, TargetNuclide[]>;
   /** Nuclide name → its peaks: always the elastic one, plus every declared inelastic state. */
   peakSources: (nuclideName: string) => PeakSource[];
+  /** Expected background counts per µC of true charge, per channel, for (calibration version index, detector index); cached. */
+  backgroundPerUC: (calibration: number, detector: number) => Float64Array;
   diagnostics: Diagnostic[];
   /** Keys of warnings already given (each case is reported once, not once per run). */
   warned: Set<string>;
@@ -41,12 +44,30 @@ export function simulationContext(spec: SimulationSpec): SimulationContext {
   for (const list of byNuclide.values()) {
     if (!list.some((s) => s.qValueKeV === 0)) list.unshift({ qValueKeV: 0, excitationKeV: 0, truth: undefined, declared: [] });
   }
+  const backgrounds = new Map<string, Float64Array>();
+  const backgroundPerUC = (calibration: number, detector: number): Float64Array => {
+    const key = `${calibration}:${detector}`;
+    let shape = backgrounds.get(key);
+    if (shape === undefined) {
+      const id = spec.detectors[detector]!.id;
+      const cal = spec.calibrations[calibration]!.detectors.find((c) => c.id === id)!;
+      shape = new Float64Array(spec.channels);
+      addBackgroundOverChannels(shape, {
+        flatPerKeVPerUC: spec.background.flat_per_keV_per_uC,
+        exponentialPerKeVPerUC: spec.background.exponential_per_keV_per_uC,
+        exponentialDecayKeV: spec.background.exponential_decay_keV,
+      }, 1, cal.offset_keV, cal.gain_keV_per_channel);
+      backgrounds.set(key, shape);
+    }
+    return shape;
+  };
   const elasticOnly: PeakSource[] = [{ qValueKeV: 0, excitationKeV: 0, truth: undefined, declared: [] }];
   return {
     spec,
     projectile: nuclide(spec.beam.projectile),
     targets,
     peakSources: (name) => byNuclide.get(name) ?? elasticOnly,
+    backgroundPerUC,
     diagnostics: [],
     warned: new Set(),
   };

@@ -97,8 +97,13 @@ export const simulationSpecObjectSchema = z
     })).default([]),
   });
 
-/** The spec schema with its cross-field checks (ids, run indices, truth > 0, kinematics of peaks). */
-export const simulationSpecSchema = simulationSpecObjectSchema.superRefine(checkSimulationSpec);
+/**
+ * The spec schema with its cross-field checks (ids, run indices, truth > 0), which run only
+ * on a spec that passed every per-field check.
+ */
+export const simulationSpecSchema = simulationSpecObjectSchema.superRefine(checkSimulationSpec, {
+  when: (payload) => payload.issues.length === 0,
+});
 
 export type SimulationSpecInput = z.input<typeof simulationSpecObjectSchema>;
 export type SimulationSpec = z.output<typeof simulationSpecObjectSchema>;

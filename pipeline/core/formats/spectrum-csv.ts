@@ -1,6 +1,7 @@
 import type { Diagnostic } from '../diagnostics/diagnostic.js';
 import { readSpectrumHeader } from './spectrum-header.js';
-import { MAX_COUNT, ProblemLog, charColumn, checkOddField, fieldEnd, fieldText, type OddField } from './spectrum-problems.js';
+import { ProblemLog, charColumn, fieldEnd, fieldText } from './spectrum-problems.js';
+import { readRowCarefully, type RowContext, type RowCursor } from './spectrum-row.js';
 
 /** One run's histograms: one Float64Array of counts per detector column, in header order. */
 export interface ParsedSpectrum {
@@ -25,8 +26,95 @@ function estimateRows(bytes: Uint8Array, offset: number): number {
   return Math.max(cr, 1);
 }
 
-function rowProblem(log: ProblemLog, bytes: Uint8Array, lineStart: number, pos: number, line: number, d: Omit<Diagnostic, 'severity' | 'file' | 'line' | 'column'>): void {
-  log.add({ severity: 'error', file: log.file, line, column: charColumn(bytes, lineStart, pos), ...d });
+/**
+ * The hot loop: reads lines of plain digits and delimiters (counts below 10^9, channel in
+ * order) straight into `ctx.counts`, growing them by doubling when full. Any other line
+ * rewinds to its start and goes to `readRowCarefully`. Kept apart from the cold code around
+ * it so the optimizing compiler sees only this loop.
+ */
+function readPlainRows(ctx: RowContext, cursor: RowCursor): void {
+  const b = ctx.bytes;
+  const n = b.length;
+  const delim = ctx.delim;
+  const counts = ctx.counts;
+  const detectorCount = counts.length;
+  const last = detectorCount - 1;
+  let capacity = counts[0].length;
+  let pos = cursor.pos;
+  let line = cursor.line;
+  let row = cursor.row;
+  let channel = cursor.expectedChannel;
+  while (pos < n) {
+    if (row === capacity) {
+      capacity *= 2;
+      for (let k = 0; k < detectorCount; k++) {
+        const grown = new Float64Array(capacity);
+        grown.set(counts[k]);
+        counts[k] = grown;
+      }
+    }
+    const lineStart = pos;
+    plain: {
+      let c = b[pos];
+      let start = pos;
+      let v = 0;
+      let d = c - 48;
+      while (d >>> 0 < 10) {
+        v = (v * 10 + d) | 0;
+        c = b[++pos];
+        d = c - 48;
+      }
+      if (c !== delim || pos === start || pos - start > 9 || v !== channel) break plain;
+      for (let k = 0; k < last; k++) {
+        d = b[++pos] - 48;
+        if (d >>> 0 >= 10) break plain;
+        start = pos;
+        v = d;
+        c = b[++pos];
+        d = c - 48;
+        while (d >>> 0 < 10) {
+          v = (v * 10 + d) | 0;
+          c = b[++pos];
+          d = c - 48;
+        }
+        if (c !== delim || pos - start > 9) break plain;
+        counts[k][row] = v;
+      }
+      d = b[++pos] - 48;
+      if (d >>> 0 >= 10) break plain;
+      start = pos;
+      v = d;
+      c = b[++pos];
+      d = c - 48;
+      while (d >>> 0 < 10) {
+        v = (v * 10 + d) | 0;
+        c = b[++pos];
+        d = c - 48;
+      }
+      if ((c !== LF && c !== CR) || pos - start > 9) break plain;
+      counts[last][row] = v;
+      pos++;
+      if (c === CR && pos < n && b[pos] === LF) pos++;
+      line++;
+      row++;
+      channel++;
+      continue;
+    }
+    cursor.pos = lineStart;
+    cursor.line = line;
+    cursor.row = row;
+    cursor.expectedChannel = channel;
+    readRowCarefully(ctx, cursor);
+    pos = cursor.pos;
+    line = cursor.line;
+    row = cursor.row;
+    channel = cursor.expectedChannel;
+  }
+
+  cursor.pos = pos;
+  cursor.line = line;
+  cursor.row = row;
+  cursor.expectedChannel = channel;
 }
 
 /**
@@ -43,7 +131,7 @@ function rowProblem(log: ProblemLog, bytes: Uint8Array, lineStart: number, pos: 
 export function parseSpectrumCsv(input: Uint8Array, file: string): { spectrum: ParsedSpectrum | null; diagnostics: Diagnostic[] } {
   const head = readSpectrumHeader(input, file);
   if (head.header === null) return { spectrum: null, diagnostics: head.diagnostics };
-  const { detectorIds, delimiterByte: delim, dataOffset, dataLine, headerLine } = head.header;
+  const { detectorIds, delimiterByte: delim, dataOffset, dataLine } = head.header;
   const detectorCount = detectorIds.length;
 
   // Every scan below stops at a line break, so a final one keeps all reads in bounds.
@@ -53,134 +141,19 @@ export function parseSpectrumCsv(input: Uint8Array, file: string): { spectrum: P
     b.set(input);
     b[input.length] = LF;
   }
-  const n = b.length;
   const pad = delim === TAB ? SPACE : TAB;
 
-  let capacity = estimateRows(b, dataOffset);
+  const estimate = estimateRows(b, dataOffset);
   const counts: Float64Array[] = [];
-  for (let k = 0; k < detectorCount; k++) counts.push(new Float64Array(capacity));
+  for (let k = 0; k < detectorCount; k++) counts.push(new Float64Array(estimate));
 
   const log = new ProblemLog(file);
-  const odd: OddField = { end: 0, value: 0, ok: false, decimal: false };
-  let firstDecimalPos = -1;
-  let firstDecimalLine = 0;
-  let firstDecimalLineStart = 0;
+  const ctx: RowContext = { bytes: b, delim, pad, detectorIds, counts, log, odd: { end: 0, value: 0, ok: false, decimal: false } };
+  const cursor: RowCursor = { pos: dataOffset, line: dataLine, row: 0, expectedChannel: 0, firstDecimalPos: -1, firstDecimalLine: 0, firstDecimalLineStart: 0 };
+  readPlainRows(ctx, cursor);
+  const row = cursor.row;
 
-  let pos = dataOffset;
-  let line = dataLine;
-  let row = 0;
-  let expectedChannel = 0;
-  while (pos < n) {
-    const lineStart = pos;
-    let c = b[pos];
-    if (c === LF || c === CR || c === SPACE || c === TAB) {
-      let p = pos;
-      while (c === SPACE || c === TAB) c = b[++p];
-      if (c === LF || c === CR) {
-        pos = p + 1;
-        if (c === CR && pos < n && b[pos] === LF) pos++;
-        line++;
-        continue;
-      }
-      c = b[pos];
-    }
-    if (row === capacity) {
-      capacity *= 2;
-      for (let k = 0; k < detectorCount; k++) {
-        const grown = new Float64Array(capacity);
-        grown.set(counts[k]);
-        counts[k] = grown;
-      }
-    }
-
-    let field = 0;
-    for (;;) {
-      while (c === SPACE || c === pad) c = b[++pos];
-      const fieldStart = pos;
-      let value = 0;
-      let digit = c - 48;
-      let plain = false;
-      let decimal = false;
-      if (digit >>> 0 < 10) {
-        do {
-          value = value * 10 + digit;
-          c = b[++pos];
-          digit = c - 48;
-        } while (digit >>> 0 < 10);
-        if (c === 46 || (c === 44 && delim !== 44)) {
-          decimal = true;
-          c = b[++pos];
-          while (c === 48) c = b[++pos];
-        }
-        while (c === SPACE || c === pad) c = b[++pos];
-        plain = (c === delim || c === LF || c === CR) && value < MAX_COUNT;
-      }
-      if (!plain) {
-        checkOddField(b, fieldStart, delim, lineStart, line, log, odd);
-        pos = odd.end;
-        c = b[pos];
-        value = odd.value;
-        decimal = odd.decimal;
-        plain = odd.ok;
-      }
-      if (decimal && plain && firstDecimalPos < 0) {
-        firstDecimalPos = fieldStart;
-        firstDecimalLine = line;
-        firstDecimalLineStart = lineStart;
-      }
-      if (field === 0) {
-        if (plain && value !== expectedChannel) {
-          rowProblem(log, b, lineStart, fieldStart, line, {
-            message: `channel ${JSON.stringify(fieldText(b, fieldStart, pos))} where channel ${expectedChannel} is expected`,
-            rule: 'spectrum-channel-order',
-            expected: `channel ${expectedChannel} (channels run 0…N−1 in order, one row each)`,
-            actual: fieldText(b, fieldStart, pos),
-            hint: value < expectedChannel ? 'a channel is repeated or the rows are out of order' : `channels ${expectedChannel}…${value - 1} are missing`,
-          });
-        }
-        expectedChannel = plain ? value + 1 : expectedChannel + 1;
-      } else {
-        counts[field - 1][row] = value;
-      }
-      field++;
-      if (field > detectorCount) break;
-      if (c !== delim) {
-        rowProblem(log, b, lineStart, pos, line, {
-          message: `row has ${field} fields but the header has ${detectorCount + 1}; no count for ${JSON.stringify(detectorIds[field - 1])}${
-            field < detectorCount ? ` and ${detectorCount - field} more detector${detectorCount - field === 1 ? '' : 's'}` : ''
-          }`,
-          rule: 'spectrum-ragged-row',
-          expected: `${detectorCount + 1} fields: channel and ${detectorCount} counts`,
-          actual: `${field} fields`,
-          hint: 'a row was cut short: check whether the file was copied while still being written',
-        });
-        break;
-      }
-      c = b[++pos];
-    }
-    if (c === delim) {
-      let fields = detectorCount + 1;
-      let p = pos;
-      while (b[p] === delim) {
-        fields++;
-        p = fieldEnd(b, p + 1, delim);
-      }
-      rowProblem(log, b, lineStart, pos + 1, line, {
-        message: `row has ${fields} fields but the header has ${detectorCount + 1}; first extra field ${JSON.stringify(fieldText(b, pos + 1, fieldEnd(b, pos + 1, delim)))}`,
-        rule: 'spectrum-ragged-row',
-        expected: `${detectorCount + 1} fields: channel and ${detectorCount} counts`,
-        actual: `${fields} fields`,
-        hint: 'every row holds the channel and one count per detector column of the header; remove a trailing delimiter',
-      });
-      pos = p;
-      c = b[pos];
-    }
-    pos++;
-    if (c === CR && pos < n && b[pos] === LF) pos++;
-    line++;
-    row++;
-  }
-
+  const headerLine = head.header.headerLine;
   if (row === 0 && log.errors === 0) {
     log.add({
       severity: 'error',
@@ -195,20 +168,21 @@ export function parseSpectrumCsv(input: Uint8Array, file: string): { spectrum: P
     });
   }
   const diagnostics = [...head.diagnostics, ...log.finish()];
+  const firstDecimalPos = cursor.firstDecimalPos;
   if (firstDecimalPos >= 0) {
     const text = fieldText(b, firstDecimalPos, fieldEnd(b, firstDecimalPos, delim));
     diagnostics.push({
       severity: 'info',
       message: `counts are written as decimals (first ${JSON.stringify(text)}); read as the integers they equal`,
       file,
-      line: firstDecimalLine,
-      column: charColumn(b, firstDecimalLineStart, firstDecimalPos),
+      line: cursor.firstDecimalLine,
+      column: charColumn(b, cursor.firstDecimalLineStart, firstDecimalPos),
       rule: 'spectrum-decimal-counts',
       actual: JSON.stringify(text),
       hint: 'writing counts as integers makes the files smaller and faster to read',
     });
   }
   if (log.errors > 0) return { spectrum: null, diagnostics };
-  if (row < capacity) for (let k = 0; k < detectorCount; k++) counts[k] = counts[k].slice(0, row);
+  if (row < counts[0].length) for (let k = 0; k < detectorCount; k++) counts[k] = counts[k].slice(0, row);
   return { spectrum: { detectorIds, channelCount: row, counts }, diagnostics };
 }

@@ -12,10 +12,3 @@ export function normalCdf(x: number): number {
 export function normalUpperTail(x: number): number {
   return 0.5 * erfc(x / Math.SQRT2);
 }
-
-/** P(a < X <= b) for a standard normal X, a <= b, accurate in both tails. */
-export function normalIntervalProbability(a: number, b: number): number {
-  if (a >= 0) return normalUpperTail(a) - normalUpperTail(b);
-  if (b <= 0) return normalCdf(b) - normalCdf(a);
-  return 1 - normalCdf(a) - normalUpperTail(b);
-}
