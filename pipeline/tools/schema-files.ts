@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { calibrationSchema } from '../core/config/calibration-schema.js';
 import { extractSettingsSchema, normalizationSchema, seriesSchema } from '../core/config/series-schema.js';
 import { describeSettings } from '../core/config/setting.js';
+import { CROSS_SECTION_COLUMNS } from '../../stages/report/cross-section-columns.js';
 
 const withId = (schema: z.ZodType, id: string, title: string) => ({ $id: id, title, ...(z.toJSONSchema(schema, { io: 'input', unrepresentable: 'any' }) as object) });
 
@@ -30,4 +31,21 @@ export function settingsTableMarkdown(): string {
   const lines = ['| key in series.yaml | values | unit | default | meaning |', '|---|---|---|---|---|'];
   for (const r of rows) lines.push(`| \`${r.key}\` | ${r.type} | ${r.unit} | ${r.default} | ${r.description} |`);
   return `${lines.join('\n')}\n`;
+}
+
+/** The README table of cross_sections.arrow, from the report's column definitions. */
+export function columnsTableMarkdown(): string {
+  const lines = ['| column | unit | meaning |', '|---|---|---|'];
+  for (const c of CROSS_SECTION_COLUMNS) lines.push(`| \`${c.name}\` | ${c.unit ?? ''} | ${c.description.replace(/\|/g, '\\|')} |`);
+  return `${lines.join('\n')}\n`;
+}
+
+/** Replaces the text between `<!-- name:start -->` and `<!-- name:end -->`. */
+export function replaceBetween(text: string, name: string, body: string): string {
+  const start = `<!-- ${name}:start -->`;
+  const end = `<!-- ${name}:end -->`;
+  const i = text.indexOf(start);
+  const j = text.indexOf(end);
+  if (i < 0 || j < i) throw new Error(`README has no ${start} … ${end} block`);
+  return `${text.slice(0, i + start.length)}\n${body}${text.slice(j)}`;
 }

@@ -110,6 +110,7 @@ export function crossSectionRow(x: RowInput): CrossSectionRow {
     chargeUC: run.chargeUC,
     nuclideArealDensity1e15PerCm2: x.nuclide.atomsPerCm2 / 1e15,
     solidAngleMsr: normalization?.solidAngleMsr ?? NaN_,
+    normalizationCountingRelUnc: normalization ? Math.hypot(normalization.relCounting, normalization.relLive) : NaN_,
     referenceRuns: normalization ? normalization.referenceRuns.join('+') : '',
     crossSectionLabMbPerSr: lab,
     crossSectionLabStatMbPerSr: labStat,

@@ -26,6 +26,7 @@ export const CROSS_SECTION_COLUMNS: readonly C[] = [
   { name: 'charge_uC', type: 'float64', unit: 'uC', description: 'integrated beam charge from runlog.csv', value: (r) => r.chargeUC },
   { name: 'nuclide_areal_density_1e15_per_cm2', type: 'float64', unit: '1e15/cm^2', description: 'atoms of the target nuclide per area (layer density × atom fraction × abundance)', value: (r) => r.nuclideArealDensity1e15PerCm2 },
   { name: 'effective_solid_angle_msr', type: 'float64', unit: 'msr', description: 'normalization used: effective solid angle from the reference runs (absorbs the charge-integrator scale)', value: (r) => r.solidAngleMsr },
+  { name: 'normalization_counting_rel_unc', type: 'float64', unit: '1', description: 'relative uncertainty of the normalization from reference-run counting and live time (included in the systematic uncertainty; shared by the rows that use the same reference runs)', value: (r) => r.normalizationCountingRelUnc },
   { name: 'reference_runs', type: 'utf8', description: 'reference runs the normalization came from, joined by +', value: (r) => r.referenceRuns },
   { name: 'cross_section_lab_mb_per_sr', type: 'float64', unit: 'mb/sr', description: 'differential cross section dσ/dΩ, lab frame', value: (r) => r.crossSectionLabMbPerSr },
   { name: 'cross_section_lab_stat_mb_per_sr', type: 'float64', unit: 'mb/sr', description: 'statistical standard uncertainty (counting, background, live fraction): independent between rows', value: (r) => r.crossSectionLabStatMbPerSr },

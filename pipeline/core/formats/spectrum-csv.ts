@@ -16,14 +16,22 @@ const CR = 13;
 const SPACE = 32;
 const TAB = 9;
 
-/** Upper bound on the data rows from `offset`: line breaks counted with indexOf (LF, or CR for CR-only files). */
-function estimateRows(bytes: Uint8Array, offset: number): number {
-  let lf = 0;
-  for (let p = bytes.indexOf(LF, offset); p !== -1; p = bytes.indexOf(LF, p + 1)) lf++;
-  if (lf > 0) return lf;
-  let cr = 0;
-  for (let p = bytes.indexOf(CR, offset); p !== -1; p = bytes.indexOf(CR, p + 1)) cr++;
-  return Math.max(cr, 1);
+/**
+ * Rows to allocate: the channel number on the last line + 1 (exact for a well-formed file),
+ * capped by the most rows the bytes could hold (a row takes at least 2 bytes per field).
+ * A wrong guess costs only a doubling or a final trim.
+ */
+function estimateRows(bytes: Uint8Array, offset: number, detectorCount: number): number {
+  const most = Math.max(1, Math.ceil((bytes.length - offset) / (2 * (detectorCount + 1))));
+  let end = bytes.length;
+  while (end > offset && (bytes[end - 1] === LF || bytes[end - 1] === CR || bytes[end - 1] === SPACE || bytes[end - 1] === TAB)) end--;
+  let start = end;
+  while (start > offset && bytes[start - 1] !== LF && bytes[start - 1] !== CR) start--;
+  while (start < end && (bytes[start] === SPACE || bytes[start] === TAB)) start++;
+  let channel = 0;
+  let digits = 0;
+  for (let p = start; p < end && bytes[p] >= 48 && bytes[p] <= 57 && digits < 10; p++, digits++) channel = channel * 10 + bytes[p] - 48;
+  return digits > 0 && channel < most ? channel + 1 : Math.min(most, 4096);
 }
 
 /**
@@ -98,6 +106,12 @@ function readPlainRows(ctx: RowContext, cursor: RowCursor): void {
       line++;
       row++;
       channel++;
+      // Synced every row, not after the loop: code after a long loop has no type feedback
+      // when the loop is compiled on the fly, and would send each call back to the interpreter.
+      cursor.pos = pos;
+      cursor.line = line;
+      cursor.row = row;
+      cursor.expectedChannel = channel;
       continue;
     }
     cursor.pos = lineStart;
@@ -110,11 +124,6 @@ function readPlainRows(ctx: RowContext, cursor: RowCursor): void {
     row = cursor.row;
     channel = cursor.expectedChannel;
   }
-
-  cursor.pos = pos;
-  cursor.line = line;
-  cursor.row = row;
-  cursor.expectedChannel = channel;
 }
 
 /**
@@ -143,7 +152,7 @@ export function parseSpectrumCsv(input: Uint8Array, file: string): { spectrum: P
   }
   const pad = delim === TAB ? SPACE : TAB;
 
-  const estimate = estimateRows(b, dataOffset);
+  const estimate = estimateRows(b, dataOffset, detectorCount);
   const counts: Float64Array[] = [];
   for (let k = 0; k < detectorCount; k++) counts.push(new Float64Array(estimate));
 

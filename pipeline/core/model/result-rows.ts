@@ -82,6 +82,8 @@ export interface CrossSectionRow {
   /** Atoms of the target nuclide per cm², in 1e15/cm². */
   nuclideArealDensity1e15PerCm2: number;
   solidAngleMsr: number;
+  /** Relative uncertainty of the normalization from reference counting and live time (part of sys). */
+  normalizationCountingRelUnc: number;
   referenceRuns: string;
   crossSectionLabMbPerSr: number;
   crossSectionLabStatMbPerSr: number;
