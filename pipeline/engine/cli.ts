@@ -58,7 +58,7 @@ async function main(argv: string[]): Promise<number> {
       if (r.exitCode === EXIT.usage) {
         log.error({ series_dir: seriesDir }, `series not reduced: ${r.diagnostics.filter((d) => d.severity === 'error').length} error(s) above`);
       } else {
-        log.info({ series: r.series, ...r.counts, duration_ms: ms }, `${r.series}: ${r.counts.reduced} runs reduced, ${r.counts.setAside} set aside, ${r.counts.rows} cross-section rows in ${ms} ms`);
+        log.info({ series: r.series, ...r.counts, duration_ms: ms, phases_ms: r.phasesMs }, `${r.series}: ${r.counts.reduced} runs reduced, ${r.counts.setAside} set aside, ${r.counts.rows} cross-section rows in ${ms} ms`);
         process.stdout.write(`${r.outSeriesDir}\n${r.summaryPath ? `${r.summaryPath}\n` : ''}`);
       }
       exitCode = r.exitCode;

@@ -4,7 +4,9 @@ import { channelToEnergyKeV, type EnergyCalibration } from '../core/calibration/
 import { netCounts } from '../core/counting/net-counts.js';
 import { planPeakWindow, type MeasuredPeak, type PeakRequest, type WindowWidths } from '../core/counting/peak-window.js';
 import { measureWindowSums } from '../core/counting/window-sums.js';
-import { ingestSpectrum } from '../../stages/ingest/index.js';
+import { SpectrumScratch } from '../core/formats/spectrum-csv.js';
+// The per-run module only: workers must not load the series-level readers (zod, yaml).
+import { ingestSpectrum } from '../../stages/ingest/ingest-spectrum.js';
 
 /** What the engine asks of one run's spectrum: plain data, so it can cross a worker boundary. */
 export interface MeasureTask {
@@ -35,13 +37,20 @@ export interface MeasureResult {
  * through the run's calibration, sums, net counts above the linear background, centroid
  * shift. Pure apart from the hash; runs in a worker thread or in-process alike.
  */
+/** One per thread: measureRun keeps nothing of a spectrum once it has returned. */
+const scratch = new SpectrumScratch();
+
 export function measureRun(task: MeasureTask, bytes: Uint8Array): MeasureResult {
   const sha256 = createHash('sha256').update(bytes).digest('hex');
-  const ingested = ingestSpectrum(bytes, task.file, task.run, task.detectorIds);
+  const ingested = ingestSpectrum(bytes, task.file, task.run, task.detectorIds, scratch);
   const base = { run: task.run, sha256, diagnostics: ingested.diagnostics };
   if (ingested.spectrum === null) return { ...base, ok: false, channelCount: 0, totals: [], peaks: [] };
   const s = ingested.spectrum;
-  const totals = s.counts.map((c) => c.reduce((a, b) => a + b, 0));
+  const totals = s.counts.map((c) => {
+    let t = 0;
+    for (let i = 0; i < c.length; i++) t += c[i]!;
+    return t;
+  });
   const peaks: MeasuredPeak[] = [];
   for (const request of task.requests) {
     const di = task.detectorIds.indexOf(request.detector);

@@ -36,6 +36,8 @@ export interface ReduceResult {
   summaryPath?: string;
   diagnostics: Diagnostic[];
   counts: { runs: number; reduced: number; setAside: number; notReduced: number; rows: number };
+  /** Wall time of each phase, ms. */
+  phasesMs: Record<string, number>;
 }
 
 const byRunOrder = (index: Map<string, number>) => (a: Diagnostic, b: Diagnostic) =>
@@ -44,11 +46,18 @@ const byRunOrder = (index: Map<string, number>) => (a: Diagnostic, b: Diagnostic
 /** The whole reduction of one series: ingest → calibrate → measure → normalize → extract → report. */
 export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   const startedAt = new Date();
+  const phasesMs: Record<string, number> = {};
+  let mark = performance.now();
+  const phase = (name: string) => {
+    const now = performance.now();
+    phasesMs[name] = Math.round(now - mark);
+    mark = now;
+  };
   const seriesDir = resolve(opts.seriesDir);
   const files = readSeriesFiles(seriesDir);
   const ing = ingest(files.input);
   const emptyCounts = { runs: 0, reduced: 0, setAside: 0, notReduced: 0, rows: 0 };
-  if (!ing.ok) return { exitCode: EXIT.usage, diagnostics: [...files.diagnostics, ...ing.diagnostics], counts: emptyCounts };
+  if (!ing.ok) return { exitCode: EXIT.usage, diagnostics: [...files.diagnostics, ...ing.diagnostics], counts: emptyCounts, phasesMs };
   const series: IngestedSeries = ing.series;
   const config = series.config;
   const setAside = new Map(series.setAside);
@@ -59,6 +68,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   const cal = calibrate({ runs: series.runs.filter(reducible), versions: series.calibrations, detectorIds: config.detectors.map((d) => d.id), runlogFile: 'runlog.csv' });
   for (const [run, ds] of cal.setAside) aside(run, ds);
 
+  phase('ingest_calibrate');
   // Plan what to measure in every usable run.
   const projectile = nuclide(config.beam.projectile);
   const refComp = referenceComposition(config);
@@ -88,6 +98,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     });
   }
 
+  phase('plan');
   // Measure (streamed, both cores).
   const results = new Map<string, MeasureResult>();
   await runMeasurements(tasks, opts.jobs, (r) => {
@@ -96,6 +107,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     results.set(r.run, r);
   });
 
+  phase('measure');
   const live = new Map<string, Map<string, LiveFraction>>();
   const usable = (kind: RunRecord['kind']) => series.runs.filter((r) => r.kind === kind && !setAside.has(r.run) && results.get(r.run)?.ok === true);
   const referenceRuns = usable('reference');
@@ -119,6 +131,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   });
   diagnostics.push(...norm.diagnostics);
 
+  phase('normalize');
   const ext = extract({
     config,
     sampleRuns,
@@ -130,6 +143,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   });
   diagnostics.push(...ext.diagnostics);
 
+  phase('extract');
   const { yields, qc } = auditRows(series, setAside, results, live, cal.byRun);
   for (const ds of setAside.values()) diagnostics.push(...ds);
   const runIndex = new Map(series.runs.map((r) => [r.run, r.index]));
@@ -178,8 +192,10 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     manifest: { ...manifest, finished_at: new Date().toISOString() },
     html: opts.html,
   });
+  phase('report');
   for (const f of rep.files) writeFileAtomic(join(outSeriesDir, f.name), f.bytes);
   writeFileAtomic(join(outSeriesDir, 'diagnostics.json'), new TextEncoder().encode(`${JSON.stringify(diagnostics, null, 1)}\n`));
+  phase('write');
   return {
     exitCode,
     series: config.series,
@@ -187,6 +203,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     summaryPath: opts.html ? join(outSeriesDir, 'summary.html') : undefined,
     diagnostics,
     counts,
+    phasesMs,
   };
 }
 

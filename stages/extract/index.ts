@@ -7,6 +7,7 @@ import type { AppliedNormalization, CrossSectionRow } from '../../pipeline/core/
 import { nuclideAreal, resolveTarget } from '../../pipeline/core/model/resolve-target.js';
 import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import { nuclide } from '../../pipeline/core/physics/nuclides.js';
+import { elasticKinematicFactor } from '../../pipeline/core/physics/elastic-kinematic-factor.js';
 import { crossSectionRow } from './cross-section-row.js';
 import { interferenceFlags, type KnownLine } from './interference-flags.js';
 
@@ -42,14 +43,16 @@ export function extract(input: ExtractInput): ExtractOutput {
   const rows: CrossSectionRow[] = [];
   const diagnostics: Diagnostic[] = [];
   const resolvedByTarget = new Map(config.targets.map((t) => [t.id, resolveTarget(t)]));
+  const masses = new Map<string, number>();
+  const massOf = (n: string) => masses.get(n) ?? masses.set(n, nuclide(n).massU).get(n)!;
   for (const run of input.sampleRuns) {
     const resolved = resolvedByTarget.get(run.target)!;
     const nuclidesHere = [...new Set(resolved.map((r) => r.nuclide))];
     for (const det of config.detectors) {
       // Every peak this spectrum is expected to hold: each nuclide's elastic peak and the configured peaks.
       const lines: KnownLine[] = nuclidesHere.map((n) => {
-        const k = peakKinematics(projectile, n, 0, undefined, run.beamEnergyKeV, det.angle_deg);
-        return { name: `${n} elastic`, energyKeV: k.ok ? k.value.energyKeV : Number.NaN };
+        const m2 = massOf(n);
+        return { name: `${n} elastic`, energyKeV: m2 > projectile.massU ? elasticKinematicFactor(projectile.massU, m2, det.angle_deg) * run.beamEnergyKeV : Number.NaN };
       });
       for (const p of config.peaks) {
         if (!nuclidesHere.includes(p.target_nuclide) || (p.excitation_keV === 0 && p.q_value_keV === undefined)) continue;

@@ -1,5 +1,5 @@
 import type { Diagnostic } from '../../pipeline/core/diagnostics/diagnostic.js';
-import { parseSpectrumCsv } from '../../pipeline/core/formats/spectrum-csv.js';
+import { parseSpectrumCsv, type SpectrumScratch } from '../../pipeline/core/formats/spectrum-csv.js';
 
 export interface IngestedSpectrum {
   channelCount: number;
@@ -12,8 +12,8 @@ export interface IngestedSpectrum {
  * Any error sets the run aside (a spectrum with an unknown or a missing detector column
  * cannot be trusted to be this series' data).
  */
-export function ingestSpectrum(bytes: Uint8Array, file: string, run: string, detectorIds: readonly string[]): { spectrum: IngestedSpectrum | null; diagnostics: Diagnostic[] } {
-  const parsed = parseSpectrumCsv(bytes, file);
+export function ingestSpectrum(bytes: Uint8Array, file: string, run: string, detectorIds: readonly string[], scratch?: SpectrumScratch): { spectrum: IngestedSpectrum | null; diagnostics: Diagnostic[] } {
+  const parsed = parseSpectrumCsv(bytes, file, scratch);
   const diagnostics = parsed.diagnostics.map((d) => ({ ...d, run, stage: 'ingest' as const }));
   if (parsed.spectrum === null) return { spectrum: null, diagnostics };
   const s = parsed.spectrum;

@@ -1,7 +1,7 @@
 import type { Diagnostic } from '../diagnostics/diagnostic.js';
-import { detectDelimiter, findFirstContentLine, tokenizeCsv, type CsvCell } from './csv-tokenize.js';
+import { detectDelimiter, findFirstContentLine, tokenizeCsv, type CsvCell } from './tokenize-csv.js';
 
-export type { CsvCell } from './csv-tokenize.js';
+export type { CsvCell } from './tokenize-csv.js';
 
 /** One data row: the line it starts on and its cells (as many as written, even when ragged). */
 export interface CsvRow {

@@ -17,25 +17,41 @@ export interface YamlSource {
 const HINTS: Record<string, string> = {
   DUPLICATE_KEY: 'each key may appear once in a mapping: remove or rename one of them',
   TAB_AS_INDENT: 'YAML indents with spaces only: replace the tabs',
-  BAD_INDENT: 'line up the keys of one mapping (or the items of one list) at the same indentation',
+  BAD_INDENT: 'line up the keys of one mapping (or the items of one list) at the same indentation, and close every [ and {',
   MISSING_CHAR: 'a quote or bracket opened here is not closed',
   MULTIPLE_DOCS: 'put one document per file: remove the `---` line and what follows, or split the file',
   BLOCK_AS_IMPLICIT_KEY: 'a value on the same line as its key cannot start a nested mapping: move it to the next line, indented',
   MULTILINE_IMPLICIT_KEY: 'a key must fit on one line: check the indentation of the line after',
 };
 
+/** The text an error points at: its span on that line, widened to the rest of the line when it is a single character. */
+function pointedText(text: string, e: YAMLError): string {
+  const lineEnd = text.slice(e.pos[0]).search(/\r?\n|$/) + e.pos[0];
+  const end = Math.min(e.pos[1], lineEnd);
+  const span = end - e.pos[0] > 1 ? text.slice(e.pos[0], end) : text.slice(e.pos[0], lineEnd);
+  return span.slice(0, 40).trimEnd();
+}
+
 function errorToDiagnostic(e: YAMLError, severity: 'error' | 'warning', text: string, lineCounter: LineCounter, file: string): Diagnostic {
   const { line, col } = lineCounter.linePos(e.pos[0]);
-  const snippet = text.slice(e.pos[0], Math.min(e.pos[1], e.pos[0] + 40)).replace(/\s+$/, '');
-  const quoted = snippet === '' ? '' : ` at ${JSON.stringify(snippet)}`;
+  const snippet = pointedText(text, e);
+  let message = `${e.message.replace(/\.$/, '')}${snippet === '' ? '' : ` at ${JSON.stringify(snippet)}`}`;
+  let actual = snippet === '' ? undefined : JSON.stringify(snippet);
+  if (e.code === 'DUPLICATE_KEY') {
+    const key = snippet.replace(/\s*:.*$/, '').replace(/^(["'])(.*)\1$/, '$2');
+    message = `key ${JSON.stringify(key)} appears twice in the same mapping`;
+    actual = JSON.stringify(key);
+  } else if (e.code === 'MULTIPLE_DOCS') {
+    message = 'the file holds more than one YAML document (a `---` line starts another)';
+  }
   return {
     severity,
-    message: `${e.message.replace(/\.$/, '')}${quoted}`,
+    message,
     file,
     line,
     column: col,
     rule: `yaml-${e.code.toLowerCase().replace(/_/g, '-')}`,
-    ...(snippet === '' ? {} : { actual: JSON.stringify(snippet) }),
+    ...(actual === undefined ? {} : { actual }),
     hint: HINTS[e.code] ?? 'check the YAML syntax at this position',
   };
 }

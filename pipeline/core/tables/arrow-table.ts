@@ -22,24 +22,50 @@ export interface TableMeta {
   extra?: Record<string, string>;
 }
 
-function vector(type: ColumnType, values: (number | string | null)[]): arrow.Vector {
-  switch (type) {
-    case 'float64':
-      return arrow.vectorFromArray(
-        values.map((v) => (typeof v === 'number' && Number.isFinite(v) ? v : null)),
-        new arrow.Float64(),
-      );
-    case 'int32':
-      return arrow.vectorFromArray(
-        values.map((v) => (typeof v === 'number' && Number.isFinite(v) ? v : null)),
-        new arrow.Int32(),
-      );
-    case 'utf8':
-      return arrow.vectorFromArray(
-        values.map((v) => (v === null ? null : String(v))),
-        new arrow.Utf8(),
-      );
+/** Validity bitmap (LSB first, 1 = valid) or undefined when every value is valid. */
+function bitmap(valid: (i: number) => boolean, length: number): { nullBitmap: Uint8Array | undefined; nullCount: number } {
+  const bits = new Uint8Array((length + 7) >> 3);
+  let nullCount = 0;
+  for (let i = 0; i < length; i++) {
+    if (valid(i)) bits[i >> 3]! |= 1 << (i & 7);
+    else nullCount++;
   }
+  return nullCount === 0 ? { nullBitmap: undefined, nullCount } : { nullBitmap: bits, nullCount };
+}
+
+const encoder = new TextEncoder();
+
+/**
+ * Column data built straight into Arrow buffers (no per-value builder): numbers into a typed
+ * array, strings encoded once per distinct value (most columns repeat run and detector ids).
+ */
+function columnData(type: ColumnType, values: (number | string | null)[]): arrow.Data {
+  const length = values.length;
+  if (type === 'float64' || type === 'int32') {
+    const data = type === 'float64' ? new Float64Array(length) : new Int32Array(length);
+    const ok = (i: number) => typeof values[i] === 'number' && Number.isFinite(values[i] as number);
+    for (let i = 0; i < length; i++) if (ok(i)) data[i] = values[i] as number;
+    const { nullBitmap, nullCount } = bitmap(ok, length);
+    return arrow.makeData({ type: type === 'float64' ? new arrow.Float64() : new arrow.Int32(), length, nullCount, data, nullBitmap } as never);
+  }
+  const cache = new Map<string, Uint8Array>();
+  const encoded: (Uint8Array | null)[] = values.map((v) => {
+    if (v === null) return null;
+    const text = String(v);
+    let e = cache.get(text);
+    if (e === undefined) cache.set(text, (e = encoder.encode(text)));
+    return e;
+  });
+  const valueOffsets = new Int32Array(length + 1);
+  let total = 0;
+  for (let i = 0; i < length; i++) {
+    total += encoded[i]?.length ?? 0;
+    valueOffsets[i + 1] = total;
+  }
+  const data = new Uint8Array(total);
+  for (let i = 0; i < length; i++) if (encoded[i]) data.set(encoded[i]!, valueOffsets[i]!);
+  const { nullBitmap, nullCount } = bitmap((i) => encoded[i] !== null, length);
+  return arrow.makeData({ type: new arrow.Utf8(), length, nullCount, valueOffsets, data, nullBitmap });
 }
 
 /** Builds an Arrow table (NaN and non-finite numbers become nulls). Deterministic: no clock, no random ids. */
@@ -58,7 +84,7 @@ export function buildTable<R>(columns: readonly ColumnSpec<R>[], rows: readonly 
     fields,
     new Map([['xsred.table', meta.table], ['xsred.columns', JSON.stringify(dictionary)], ...Object.entries(meta.extra ?? {}).sort(([a], [b]) => a.localeCompare(b))]),
   );
-  const children = columns.map((c) => vector(c.type, rows.map(c.value)).data[0]!);
+  const children = columns.map((c) => columnData(c.type, rows.map(c.value)));
   const data = arrow.makeData({ type: new arrow.Struct(schema.fields), length: rows.length, nullCount: 0, children });
   return new arrow.Table(schema, [new arrow.RecordBatch(schema, data)]);
 }

@@ -96,6 +96,11 @@ describe('accepted lab-machine variants (common practice)', () => {
     ]);
   });
 
+  it('reads a Node Buffer as it comes from readFileSync', () => {
+    const r = parseSpectrumCsv(Buffer.from(plain, 'utf8'), FILE);
+    expect(r.spectrum?.counts.map((c) => Array.from(c))).toEqual(want);
+  });
+
   it('does not modify the caller’s bytes and reads a view into a larger buffer', () => {
     const whole = new TextEncoder().encode(`xxxx${plain.slice(0, -1)}yyyy`);
     const view = whole.subarray(4, whole.length - 4);
@@ -172,6 +177,12 @@ describe('refusals: rule, line and 1-based column of the offending field', () =>
       ['spectrum-ragged-row', 2, 6],
     ]);
     expect(wrongDelimiter.diagnostics[0].hint).toContain('";"');
+  });
+
+  it('a bad channel number is called a channel number, not a count', () => {
+    const r = parse('channel,d01\nabc,1\n');
+    expect(where(r)).toEqual([['spectrum-not-integer', 2, 1]]);
+    expect(r.diagnostics[0].message).toBe('channel number "abc" is not a non-negative integer');
   });
 
   it('an empty field (spectrum-empty-field)', () => {

@@ -1,5 +1,5 @@
 import type { Diagnostic } from '../diagnostics/diagnostic.js';
-import { detectDelimiter, tokenizeCsv } from './csv-tokenize.js';
+import { detectDelimiter, tokenizeCsv } from './tokenize-csv.js';
 
 /** What the data-row parser needs from a spectrum file's header line. */
 export interface SpectrumHeader {
@@ -15,6 +15,7 @@ export interface SpectrumHeader {
 
 const LF = 10;
 const CR = 13;
+const utf8 = new TextDecoder('utf-8');
 
 function afterBreak(bytes: Uint8Array, p: number): number {
   if (p >= bytes.length) return p;
@@ -70,7 +71,7 @@ export function readSpectrumHeader(bytes: Uint8Array, file: string): { header: S
     }
     end++;
   }
-  const text = new TextDecoder('utf-8').decode(bytes.subarray(pos, end));
+  const text = utf8.decode(bytes.subarray(pos, end));
   const delimiter = detectDelimiter(text);
   const tokens = tokenizeCsv(text, file, delimiter, 0, line, 1);
   const diagnostics = tokens.diagnostics;

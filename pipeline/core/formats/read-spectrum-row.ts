@@ -1,7 +1,8 @@
 import type { Diagnostic } from '../diagnostics/diagnostic.js';
-import { MAX_COUNT, ProblemLog, charColumn, checkOddField, fieldEnd, fieldText, type OddField } from './spectrum-problems.js';
+import { MAX_COUNT, charColumn, checkSpectrumField, fieldEnd, fieldText, type FieldCheck } from './check-spectrum-field.js';
+import type { ProblemLog } from './problem-log.js';
 
-/** Where `parseSpectrumCsv` stands: shared by its fast loop and `readRowCarefully`. */
+/** Where `parseSpectrumCsv` stands: shared by its fast loop and `readSpectrumRow`. */
 export interface RowCursor {
   /** Byte offset of the start of the current line. */
   pos: number;
@@ -26,7 +27,7 @@ export interface RowContext {
   detectorIds: string[];
   counts: Float64Array[];
   log: ProblemLog;
-  odd: OddField;
+  odd: FieldCheck;
 }
 
 const LF = 10;
@@ -45,7 +46,7 @@ function rowProblem(ctx: RowContext, lineStart: number, pos: number, line: numbe
  * The fast loop of `parseSpectrumCsv` hands over any line that is not plain digits and
  * delimiters; the caller has made room for one more row.
  */
-export function readRowCarefully(ctx: RowContext, cursor: RowCursor): void {
+export function readSpectrumRow(ctx: RowContext, cursor: RowCursor): void {
   const { bytes: b, delim, pad, counts, odd } = ctx;
   const detectorCount = counts.length;
   const n = b.length;
@@ -87,7 +88,7 @@ export function readRowCarefully(ctx: RowContext, cursor: RowCursor): void {
       plain = (c === delim || c === LF || c === CR) && value < MAX_COUNT;
     }
     if (!plain) {
-      checkOddField(b, fieldStart, delim, lineStart, line, ctx.log, odd);
+      checkSpectrumField(b, fieldStart, delim, lineStart, line, ctx.log, odd, field === 0 ? 'channel number' : 'count');
       pos = odd.end;
       c = b[pos];
       value = odd.value;
@@ -107,8 +108,13 @@ export function readRowCarefully(ctx: RowContext, cursor: RowCursor): void {
           message: `channel ${JSON.stringify(text)} where channel ${expected} is expected`,
           rule: 'spectrum-channel-order',
           expected: `channel ${expected} (channels run 0…N−1 in order, one row each)`,
-          actual: text,
-          hint: value < expected ? 'a channel is repeated or the rows are out of order' : `channels ${expected}…${value - 1} are missing`,
+          actual: JSON.stringify(text),
+          hint:
+            value < expected
+              ? 'a channel is repeated or the rows are out of order'
+              : value === expected + 1
+                ? `channel ${expected} is missing`
+                : `channels ${expected}…${value - 1} are missing`,
         });
       }
       cursor.expectedChannel = plain ? value + 1 : expected + 1;

@@ -1,44 +1,14 @@
-import type { Diagnostic } from '../diagnostics/diagnostic.js';
+import type { ProblemLog } from './problem-log.js';
 
 /**
- * The cold path of `parseSpectrumCsv`: everything that runs only when a field is not a
- * plain non-negative integer. Kept apart so the hot loop stays small.
+ * The cold path of `parseSpectrumCsv`: what runs only when a field is not a plain
+ * non-negative integer, and the byte helpers its diagnostics need. Kept apart so the hot
+ * loop stays small.
  */
 
-/** Largest count accepted: 2^53, the last integer a double holds with all its neighbours (ECMA-262 Number.MAX_SAFE_INTEGER + 1). */
+/** Largest count accepted: 2^53; every integer up to it is exact in a double (ECMA-262: Number.MAX_SAFE_INTEGER + 1). */
 export const MAX_COUNT = 9007199254740992;
 const MAX_COUNT_TEXT = '9007199254740992';
-
-/** Error diagnostics of one file: the first `limit` kept, the rest counted into one summary. */
-export class ProblemLog {
-  readonly diagnostics: Diagnostic[] = [];
-  errors = 0;
-  constructor(
-    readonly file: string,
-    readonly limit = 10,
-  ) {}
-
-  add(d: Diagnostic): void {
-    this.errors++;
-    if (this.errors <= this.limit) this.diagnostics.push(d);
-  }
-
-  /** The kept diagnostics plus, when some were dropped, `…and N more problems in this file`. */
-  finish(): Diagnostic[] {
-    const extra = this.errors - this.limit;
-    if (extra > 0) {
-      this.diagnostics.push({
-        severity: 'error',
-        message: `…and ${extra} more problem${extra === 1 ? '' : 's'} in this file`,
-        file: this.file,
-        rule: 'spectrum-more-problems',
-        actual: `${this.errors} problems`,
-        hint: 'fix the problems listed above and read the file again',
-      });
-    }
-    return this.diagnostics;
-  }
-}
 
 /** 1-based character column of byte `pos` in the line starting at byte `lineStart` (UTF-8: continuation bytes do not count). */
 export function charColumn(bytes: Uint8Array, lineStart: number, pos: number): number {
@@ -58,15 +28,17 @@ export function fieldEnd(bytes: Uint8Array, pos: number, delim: number): number 
   return p;
 }
 
+const utf8 = new TextDecoder('utf-8');
+
 /** The field's text, decoded and trimmed of spaces and tabs. */
 export function fieldText(bytes: Uint8Array, start: number, end: number): string {
-  return new TextDecoder('utf-8')
+  return utf8
     .decode(bytes.subarray(start, end))
     .replace(/^[ \t]+|[ \t]+$/g, '');
 }
 
-/** Outcome of `checkOddField` (one object reused, so the cold path allocates no result per call). */
-export interface OddField {
+/** Outcome of `checkSpectrumField` (one object reused, so the cold path allocates no result per call). */
+export interface FieldCheck {
   end: number;
   value: number;
   ok: boolean;
@@ -83,14 +55,15 @@ function delimiterName(delim: number): string {
  * 2^53 exactly (also with a decimal point or, when `,` is not the delimiter, a decimal
  * comma followed by zeros); logs one diagnostic for anything else.
  */
-export function checkOddField(
+export function checkSpectrumField(
   bytes: Uint8Array,
   start: number,
   delim: number,
   lineStart: number,
   line: number,
   log: ProblemLog,
-  out: OddField,
+  out: FieldCheck,
+  what: 'channel number' | 'count',
 ): void {
   const end = fieldEnd(bytes, start, delim);
   const text = fieldText(bytes, start, end);
@@ -110,7 +83,7 @@ export function checkOddField(
     }
     log.add({
       severity: 'error',
-      message: `count ${JSON.stringify(text)} is above 2^53 = ${MAX_COUNT_TEXT}, the largest count held exactly`,
+      message: `${what} ${JSON.stringify(text)} is above 2^53 = ${MAX_COUNT_TEXT}, the largest count held exactly`,
       ...at,
       rule: 'spectrum-count-too-large',
       expected: `an integer from 0 to ${MAX_COUNT_TEXT}`,
@@ -122,19 +95,19 @@ export function checkOddField(
   if (text === '') {
     log.add({
       severity: 'error',
-      message: 'empty field where a count is expected',
+      message: `empty field where a ${what} is expected`,
       ...at,
       rule: 'spectrum-empty-field',
-      expected: 'a non-negative integer count (0 when the channel is empty)',
+      expected: what === 'count' ? 'a non-negative integer count (0 when the channel is empty)' : 'the channel number',
       actual: '""',
-      hint: 'write 0 for a channel with no counts',
+      hint: what === 'count' ? 'write 0 for a channel with no counts' : 'every row starts with its channel number 0…N−1',
     });
     return;
   }
   if (/^-\s*[0-9.]/.test(text)) {
     log.add({
       severity: 'error',
-      message: `count ${JSON.stringify(text)} is negative`,
+      message: `${what} ${JSON.stringify(text)} is negative`,
       ...at,
       rule: 'spectrum-negative-count',
       expected: 'a non-negative integer count',
@@ -157,7 +130,7 @@ export function checkOddField(
   }
   log.add({
     severity: 'error',
-    message: `count ${JSON.stringify(text)} is not a non-negative integer`,
+    message: `${what} ${JSON.stringify(text)} is not a non-negative integer`,
     ...at,
     rule: 'spectrum-not-integer',
     expected: 'a non-negative integer count',
