@@ -4,6 +4,8 @@ import { existsSync, statSync } from 'node:fs';
 import { Command, InvalidArgumentError } from 'commander';
 import type { Diagnostic } from '../core/diagnostics/diagnostic.js';
 import { formatDiagnostic } from '../core/diagnostics/format-diagnostic.js';
+import { describeSettings } from '../core/config/setting.js';
+import { extractSettingsSchema, normalizationSchema } from '../core/config/series-schema.js';
 import { EXIT } from './exit-codes.js';
 import { createLogger } from './logger.js';
 import { SOFTWARE } from './software.js';
@@ -19,6 +21,13 @@ function positiveInt(v: string): number {
   const n = Number(v);
   if (!Number.isInteger(n) || n < 1) throw new InvalidArgumentError(`expected a whole number ≥ 1, got "${v}"`);
   return n;
+}
+
+/** The tunable settings, from the same zod definitions the validator uses. */
+function settingsHelp(): string {
+  const rows = [...describeSettings('normalization', normalizationSchema), ...describeSettings('extract', extractSettingsSchema)].filter((r) => r.default !== '');
+  const width = Math.max(...rows.map((r) => r.key.length));
+  return `Settings (keys in series.yaml; defaults in configs/defaults.json):\n${rows.map((r) => `  ${r.key.padEnd(width)}  ${r.description} [default ${r.default}${r.unit ? ` ${r.unit}` : ''}]`).join('\n')}`;
 }
 
 const levelFor = (d: Diagnostic) => (d.severity === 'error' ? 'error' : d.severity === 'warning' ? 'warn' : 'info');
@@ -42,7 +51,7 @@ async function main(argv: string[]): Promise<number> {
     .option('-j, --jobs <n>', 'worker threads for reading spectra (default: number of cores)', positiveInt, availableParallelism())
     .option('--no-html', 'skip summary.html (tables and manifest only)')
     .option('-q, --quiet', 'log warnings and errors only')
-    .addHelpText('after', EXIT_HELP)
+    .addHelpText('after', () => `${EXIT_HELP}\n\n${settingsHelp()}`)
     .action(async (seriesDir: string, o: { out: string; jobs: number; html: boolean; quiet?: boolean }) => {
       const log = await createLogger(o.quiet ? 'warn' : 'info');
       if (!existsSync(seriesDir) || !statSync(seriesDir).isDirectory()) {

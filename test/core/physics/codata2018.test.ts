@@ -30,3 +30,10 @@ describe('CODATA 2018 constants (Tiesinga et al., Rev. Mod. Phys. 93, 025010 (20
     expect(CODATA2018.edition).toBe('CODATA 2018');
   });
 });
+
+describe('the value quoted in the design notes', () => {
+  it('e^2/(4 pi eps0) = 1.43996448 MeV fm (DESIGN.md) agrees with CODATA 2018 alpha*hbar*c = 1.439964547 to 5e-8 relative', async () => {
+    const { CODATA2018 } = await import('../../../pipeline/core/physics/codata2018.js');
+    expect(Math.abs(CODATA2018.coulombConstantMeVFm / 1.43996448 - 1)).toBeLessThan(5e-8);
+  });
+});
