@@ -45,6 +45,8 @@ export function extract(input: ExtractInput): ExtractOutput {
   const resolvedByTarget = new Map(config.targets.map((t) => [t.id, resolveTarget(t)]));
   const masses = new Map<string, number>();
   const massOf = (n: string) => masses.get(n) ?? masses.set(n, nuclide(n).massU).get(n)!;
+  const strengthOf = (resolved: readonly { nuclide: string; atomsPerCm2: number }[], n: string) =>
+    resolved.filter((r) => r.nuclide === n).reduce((s, r) => s + r.atomsPerCm2, 0) * nuclide(n).z ** 2;
   for (const run of input.sampleRuns) {
     const resolved = resolvedByTarget.get(run.target)!;
     const nuclidesHere = [...new Set(resolved.map((r) => r.nuclide))];
@@ -52,12 +54,16 @@ export function extract(input: ExtractInput): ExtractOutput {
       // Every peak this spectrum is expected to hold: each nuclide's elastic peak and the configured peaks.
       const lines: KnownLine[] = nuclidesHere.map((n) => {
         const m2 = massOf(n);
-        return { name: `${n} elastic`, energyKeV: m2 > projectile.massU ? elasticKinematicFactor(projectile.massU, m2, det.angle_deg) * run.beamEnergyKeV : Number.NaN };
+        return {
+          name: `${n} elastic`,
+          energyKeV: m2 > projectile.massU ? elasticKinematicFactor(projectile.massU, m2, det.angle_deg) * run.beamEnergyKeV : Number.NaN,
+          strength: strengthOf(resolved, n),
+        };
       });
       for (const p of config.peaks) {
         if (!nuclidesHere.includes(p.target_nuclide) || (p.excitation_keV === 0 && p.q_value_keV === undefined)) continue;
         const k = peakKinematics(projectile, p.target_nuclide, p.excitation_keV, p.q_value_keV, run.beamEnergyKeV, det.angle_deg);
-        lines.push({ name: p.label, energyKeV: k.ok ? k.value.energyKeV : Number.NaN });
+        lines.push({ name: p.label, energyKeV: k.ok ? k.value.energyKeV : Number.NaN, strength: Number.POSITIVE_INFINITY });
       }
       for (const peak of config.peaks) {
         const areal = nuclideAreal(resolved, peak.target_nuclide);
@@ -69,7 +75,7 @@ export function extract(input: ExtractInput): ExtractOutput {
           diagnostics.push({ severity: 'warning', rule: 'peak-kinematics', stage: 'extract', run: run.run, detector: det.id, message: `peak "${peak.label}": ${problem}` });
         }
         const own = peak.excitation_keV === 0 && peak.q_value_keV === undefined ? `${peak.target_nuclide} elastic` : peak.label;
-        const extraFlags = measured ? interferenceFlags(measured.window, own, lines) : [];
+        const extraFlags = measured ? interferenceFlags(measured.window, own, strengthOf(resolved, peak.target_nuclide), lines) : [];
         const live = input.live.get(run.run)?.get(det.id) ?? { value: 1, unc: 0, source: 'none' as const };
         if (live.source === 'none') extraFlags.push('no-live-time');
         const shiftTol = config.extract.shift_tolerance_fwhm * det.resolution_fwhm_keV;
