@@ -45,8 +45,14 @@ export function extract(input: ExtractInput): ExtractOutput {
   const resolvedByTarget = new Map(config.targets.map((t) => [t.id, resolveTarget(t)]));
   const masses = new Map<string, number>();
   const massOf = (n: string) => masses.get(n) ?? masses.set(n, nuclide(n).massU).get(n)!;
-  const strengthOf = (resolved: readonly { nuclide: string; atomsPerCm2: number }[], n: string) =>
-    resolved.filter((r) => r.nuclide === n).reduce((s, r) => s + r.atomsPerCm2, 0) * nuclide(n).z ** 2;
+  const strengths = new Map<readonly unknown[], Map<string, number>>();
+  const strengthOf = (resolved: readonly { nuclide: string; atomsPerCm2: number }[], n: string) => {
+    let perTarget = strengths.get(resolved);
+    if (perTarget === undefined) strengths.set(resolved, (perTarget = new Map()));
+    let v = perTarget.get(n);
+    if (v === undefined) perTarget.set(n, (v = resolved.filter((r) => r.nuclide === n).reduce((s, r) => s + r.atomsPerCm2, 0) * nuclide(n).z ** 2));
+    return v;
+  };
   for (const run of input.sampleRuns) {
     const resolved = resolvedByTarget.get(run.target)!;
     const nuclidesHere = [...new Set(resolved.map((r) => r.nuclide))];

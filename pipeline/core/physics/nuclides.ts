@@ -76,6 +76,8 @@ function nuclideTable(): Map<string, Nuclide> {
 
 /** The nuclide named `name` (e.g. `12C`); throws UnknownNuclideError if the name is malformed or not in AME2020. */
 export function nuclide(name: string): Nuclide {
+  const known = nuclideTable().get(name);
+  if (known !== undefined) return known;
   const parsed = parseNuclideName(name);
   if (parsed === null) throw new UnknownNuclideError(name, 'not a nuclide name');
   const found = nuclideTable().get(name);

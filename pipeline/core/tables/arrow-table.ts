@@ -39,17 +39,24 @@ const encoder = new TextEncoder();
  * Column data built straight into Arrow buffers (no per-value builder): numbers into a typed
  * array, strings encoded once per distinct value (most columns repeat run and detector ids).
  */
-function columnData(type: ColumnType, values: (number | string | null)[]): arrow.Data {
-  const length = values.length;
+function columnData<R>(type: ColumnType, rows: readonly R[], value: (row: R) => number | string | null): arrow.Data {
+  const length = rows.length;
   if (type === 'float64' || type === 'int32') {
     const data = type === 'float64' ? new Float64Array(length) : new Int32Array(length);
-    const ok = (i: number) => typeof values[i] === 'number' && Number.isFinite(values[i] as number);
-    for (let i = 0; i < length; i++) if (ok(i)) data[i] = values[i] as number;
-    const { nullBitmap, nullCount } = bitmap(ok, length);
+    const valid = new Uint8Array(length);
+    for (let i = 0; i < length; i++) {
+      const v = value(rows[i]!);
+      if (typeof v === 'number' && Number.isFinite(v)) {
+        data[i] = v;
+        valid[i] = 1;
+      }
+    }
+    const { nullBitmap, nullCount } = bitmap((i) => valid[i] === 1, length);
     return arrow.makeData({ type: type === 'float64' ? new arrow.Float64() : new arrow.Int32(), length, nullCount, data, nullBitmap } as never);
   }
   const cache = new Map<string, Uint8Array>();
-  const encoded: (Uint8Array | null)[] = values.map((v) => {
+  const encoded: (Uint8Array | null)[] = rows.map((row) => {
+    const v = value(row);
     if (v === null) return null;
     const text = String(v);
     let e = cache.get(text);
@@ -84,7 +91,7 @@ export function buildTable<R>(columns: readonly ColumnSpec<R>[], rows: readonly 
     fields,
     new Map([['xsred.table', meta.table], ['xsred.columns', JSON.stringify(dictionary)], ...Object.entries(meta.extra ?? {}).sort(([a], [b]) => a.localeCompare(b))]),
   );
-  const children = columns.map((c) => columnData(c.type, rows.map(c.value)));
+  const children = columns.map((c) => columnData(c.type, rows, c.value));
   const data = arrow.makeData({ type: new arrow.Struct(schema.fields), length: rows.length, nullCount: 0, children });
   return new arrow.Table(schema, [new arrow.RecordBatch(schema, data)]);
 }
