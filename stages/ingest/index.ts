@@ -80,9 +80,9 @@ export function ingest(input: IngestInput): IngestOutput {
     const where = { file: input.runlog.file, line: r.line, run: r.run, stage: 'ingest' as const };
     const errs: Diagnostic[] = [];
     if (r.target !== '' && !targetIds.has(r.target)) {
-      errs.push({ severity: 'error', rule: 'run-unknown-target', message: `target "${r.target}" is not defined in series.yaml`, expected: [...targetIds].join(', '), actual: r.target, ...where });
+      errs.push({ severity: 'error', rule: 'run-unknown-target', message: `target "${r.target}" is not defined in series.yaml`, expected: [...targetIds].join(', '), actual: r.target, ...where, column: r.targetColumn });
     } else if (r.kind === 'reference' && r.target !== config.normalization.reference_target) {
-      errs.push({ severity: 'error', rule: 'run-reference-target', message: `reference run on target "${r.target}", but the reference target is "${config.normalization.reference_target}"`, hint: 'mark the run as sample, or fix its target', ...where });
+      errs.push({ severity: 'error', rule: 'run-reference-target', message: `reference run on target "${r.target}", but the reference target is "${config.normalization.reference_target}"`, hint: 'mark the run as sample, or fix its target', ...where, column: r.targetColumn });
     }
     if (listed.has(`${r.run}.csv`)) spectrumFiles.set(r.run, rel);
     else errs.push({ severity: 'error', rule: 'run-missing-spectrum', message: `spectrum file ${rel} is missing`, ...where });

@@ -99,6 +99,7 @@ export function readRunlog(text: string, file: string): RunlogResult {
       chargeUC,
       realTimeS,
       note: cell(row, 'note')?.text ?? '',
+      targetColumn: cell(row, 'target')?.column,
     });
     if (errors.length > 0) rowErrors.set(runId, errors);
   }

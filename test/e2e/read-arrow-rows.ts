@@ -9,7 +9,3 @@ export function readArrowRows(path: string): ArrowRow[] {
   return table.toArray().map((row) => row.toJSON() as ArrowRow);
 }
 
-/** The column names of an Arrow IPC file, in schema order. */
-export function readArrowColumnNames(path: string): string[] {
-  return arrow.tableFromIPC(readFileSync(path)).schema.fields.map((f) => f.name);
-}

@@ -125,7 +125,11 @@ describe('xsred reduce with one defect in each of eight sample runs (DEFECT_KIND
         expect(damaged.stderr).toContain(shown);
       }
       if (pos.mentions !== undefined) expect(at.some((x) => x.file === pos.mentions || x.message.includes(pos.mentions!))).toBe(true);
-      for (const x of mine) expect(x.rule).toMatch(/^[a-z0-9]+(-[a-z0-9]+)*$/);
+      for (const x of mine) {
+        expect(x.rule).toMatch(/^[a-z0-9]+(-[a-z0-9]+)*$/);
+        // Every positioned diagnostic is logged in the compiler form (README, "Command line").
+        if (x.file !== undefined && x.line !== undefined) expect(damaged.stderr).toContain(`${x.file}:${x.line}${x.column !== undefined ? `:${x.column}` : ''}: error: `);
+      }
     });
 
     it(`sets run ${run} (${d.kind}) aside in qc.arrow: every detector row set-aside, with a reason and the rule of its diagnostic`, () => {

@@ -1,5 +1,4 @@
 import { nuclide, type Nuclide } from '../physics/nuclides.js';
-import { qValueKeV } from '../physics/two-body-kinematics.js';
 import { ejectileEnergiesNonRelKeV } from '../physics/two-body-kinematics.js';
 import { cmVelocityRatio, labToCmAngleDeg, solidAngleJacobianLabPerCm } from '../physics/lab-cm.js';
 
@@ -40,8 +39,9 @@ export function peakKinematics(projectile: Nuclide, targetNuclide: string, excit
 
 function computePeakKinematics(projectile: Nuclide, targetNuclide: string, excitationKeV: number, qOverrideKeV: number | undefined, beamEnergyKeV: number, thetaLabDeg: number): PeakKinematicsResult {
   const target = nuclide(targetNuclide);
-  // Scattering (elastic or inelastic): ejectile = projectile, residual = the target nucleus.
-  const q = qOverrideKeV ?? qValueKeV(projectile, target, projectile, target, excitationKeV);
+  // Scattering (elastic or inelastic): ejectile = projectile, residual = the target nucleus,
+  // so the ground-state masses cancel and Q = −Ex exactly.
+  const q = qOverrideKeV ?? (excitationKeV === 0 ? 0 : -excitationKeV);
   const params = {
     projectileMassU: projectile.massU,
     targetMassU: target.massU,

@@ -23,6 +23,8 @@ export interface RunRecord {
   chargeUC: number;
   realTimeS: number;
   note: string;
+  /** 1-based column of the target cell in runlog.csv (for diagnostics). */
+  targetColumn?: number;
 }
 
 export type LiveScaler =
