@@ -53,11 +53,16 @@ export function crossSectionRow(x: RowInput): CrossSectionRow {
   let dLnRDE = 0;
   let dLnRDTheta = 0;
   if (elastic && projectile.massU < target.massU) {
-    const r = screenedRutherfordLab(projectile, target, run.beamEnergyKeV, detector.angle_deg, config.normalization.screening);
-    rutherford = r.sigmaMbPerSr;
-    screening = r.screeningFactor;
-    dLnRDE = r.dLnSigmaDEnergyPerKeV;
-    dLnRDTheta = r.dLnSigmaDThetaPerDeg;
+    try {
+      const r = screenedRutherfordLab(projectile, target, run.beamEnergyKeV, detector.angle_deg, config.normalization.screening);
+      rutherford = r.sigmaMbPerSr;
+      screening = r.screeningFactor;
+      dLnRDE = r.dLnSigmaDEnergyPerKeV;
+      dLnRDTheta = r.dLnSigmaDThetaPerDeg;
+    } catch (e) {
+      if (!(e instanceof RangeError)) throw e;
+      flags.push('rutherford-not-valid');
+    }
   }
   const net = measured?.net ?? null;
   if (measured !== null && net === null) flags.push('peak-not-measured');

@@ -73,7 +73,8 @@ export function ingest(input: IngestInput): IngestOutput {
   }
 
   const spectrumFiles = new Map<string, string>();
-  const listed = new Set(input.spectra);
+  // File names compare without regard to case (r003.CSV from some acquisition PCs).
+  const listed = new Map(input.spectra.map((n) => [n.toLowerCase(), n]));
   for (const r of log.runs) {
     if (!reduced(r)) continue;
     const rel = `spectra/${r.run}.csv`;
@@ -84,13 +85,14 @@ export function ingest(input: IngestInput): IngestOutput {
     } else if (r.kind === 'reference' && r.target !== config.normalization.reference_target) {
       errs.push({ severity: 'error', rule: 'run-reference-target', message: `reference run on target "${r.target}", but the reference target is "${config.normalization.reference_target}"`, hint: 'mark the run as sample, or fix its target', ...where, column: r.targetColumn });
     }
-    if (listed.has(`${r.run}.csv`)) spectrumFiles.set(r.run, rel);
+    const actual = listed.get(`${r.run}.csv`.toLowerCase());
+    if (actual !== undefined) spectrumFiles.set(r.run, `spectra/${actual}`);
     else errs.push({ severity: 'error', rule: 'run-missing-spectrum', message: `spectrum file ${rel} is missing`, ...where });
     if (scalers !== null) {
       const per = scalers.get(r.run);
       const missing = config.detectors.filter((d) => !per?.has(d.id)).map((d) => d.id);
       if (missing.length > 0 && !aside.has(r.run)) {
-        errs.push({ severity: 'error', rule: 'run-missing-scalers', message: `scalers.csv has no live time or pulser counts for detector(s) ${missing.join(', ')}`, file: input.scalers!.file, run: r.run, stage: 'ingest', hint: 'add a row per detector to scalers.csv' });
+        errs.push({ severity: 'error', rule: 'run-missing-scalers', message: `scalers.csv has no live time or pulser counts for run ${r.run}, detector(s) ${missing.join(', ')} (run listed on runlog.csv line ${r.line})`, file: input.scalers!.file, run: r.run, stage: 'ingest', hint: 'add a row per detector to scalers.csv' });
       }
     }
     setAside(aside, r.run, errs);

@@ -49,7 +49,9 @@ export function readRunlog(text: string, file: string): RunlogResult {
       continue;
     }
     if (seen.has(runId)) {
-      diagnostics.push({ severity: 'error', rule: 'runlog-duplicate-run', message: `run "${runId}" appears again (first on line ${seen.get(runId)}); the repeated row is ignored`, run: runId, hint: 'give every run its own id', ...at(runCell) });
+      // Which row is right cannot be known: the run is set aside (its first row stays listed).
+      const d: Diagnostic = { severity: 'error', rule: 'runlog-duplicate-run', message: `run "${runId}" appears again (first on line ${seen.get(runId)}); the run is set aside`, run: runId, hint: 'give every run its own id', ...at(runCell) };
+      rowErrors.set(runId, [...(rowErrors.get(runId) ?? []), d]);
       continue;
     }
     seen.set(runId, row.line);

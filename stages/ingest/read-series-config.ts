@@ -45,11 +45,12 @@ export function readSeriesConfig(text: string, file: string): { config: SeriesCo
     t.layers.forEach((l, li) => {
       for (const key of Object.keys(l.composition)) {
         const path = ['targets', ti, 'layers', li, 'composition', key];
+        const keyAt = src.locateKey?.(path);
         if (parseNuclideName(key) !== null) {
           if (knownNuclide(key)) nuclidesInTargets.add(key);
           else err(path, 'series-unknown-nuclide', `nuclide "${key}" is not in the AME2020 mass table`);
         } else if (elementZ(key) === undefined) {
-          err(path, 'series-unknown-element', `"${key}" is not an element symbol`, { hint: "write elements as 'Au', 'C'; nuclides as '13C'" });
+          err(path, 'series-unknown-element', `"${key}" is not an element symbol`, { hint: "write elements as 'Au', 'C'; nuclides as '13C'", ...(keyAt ?? {}) });
         } else {
           try {
             for (const iso of naturalIsotopes(key)) nuclidesInTargets.add(iso.nuclide.name);

@@ -21,22 +21,31 @@ export function referencePoint(config: SeriesConfig, projectile: Nuclide, ref: R
   let sumNSigmaF = 0;
   let dE = 0;
   let dTheta = 0;
-  for (const n of ref.nuclides) {
-    const r = screenedRutherfordLab(projectile, n.nuclide, run.beamEnergyKeV, det.angle_deg, config.normalization.screening);
-    const w = n.atomsPerCm2 * r.sigmaMbPerSr;
-    sumNSigma += w;
-    sumNSigmaF += w / r.screeningFactor;
-    dE += w * r.dLnSigmaDEnergyPerKeV;
-    dTheta += w * r.dLnSigmaDThetaPerDeg;
+  const flags = [...peak.window.flags];
+  try {
+    for (const n of ref.nuclides) {
+      const r = screenedRutherfordLab(projectile, n.nuclide, run.beamEnergyKeV, det.angle_deg, config.normalization.screening);
+      const w = n.atomsPerCm2 * r.sigmaMbPerSr;
+      sumNSigma += w;
+      sumNSigmaF += w / r.screeningFactor;
+      dE += w * r.dLnSigmaDEnergyPerKeV;
+      dTheta += w * r.dLnSigmaDThetaPerDeg;
+    }
+  } catch (e) {
+    // Outside the validity of the Rutherford form or the screening formula (e.g. a beam energy far too low).
+    if (!(e instanceof RangeError)) throw e;
+    flags.push('rutherford-not-valid');
+    sumNSigma = Number.NaN;
   }
   dE /= sumNSigma;
   dTheta /= sumNSigma;
-  const flags = [...peak.window.flags];
   const net = peak.net;
   const beam = microCoulombToParticles(run.chargeUC, config.beam.charge_state);
   let solidAngleMsr: number | null = null;
   let relCounting = 0;
-  if (net === null) flags.push('reference-not-measured');
+  if (!Number.isFinite(sumNSigma)) {
+    /* flagged above: no solid angle */
+  } else if (net === null) flags.push('reference-not-measured');
   else if (!(net.net > 0)) flags.push('reference-net-not-positive');
   else {
     const sr = net.net / (beam * sumNSigma * MB_TO_CM2 * live.value);

@@ -42,7 +42,8 @@ export async function renderSvg(spec: object): Promise<string> {
   const compiled = vl.compile(spec as never).spec;
   const view = new vega.View(vega.parse(compiled), { renderer: 'none' });
   try {
-    return await view.toSVG();
+    // Inline SVG in HTML5 needs no namespace declarations; dropping them keeps the page free of URLs.
+    return (await view.toSVG()).replace(/ xmlns(:xlink)?="[^"]*"/g, '');
   } finally {
     view.finalize();
   }

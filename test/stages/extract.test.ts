@@ -165,7 +165,7 @@ describe('crossSectionRow: a hand case (README, "Cross sections"; 2000 keV 4He o
     expect(row.normalizationCountingRelUnc).toBeCloseTo(Math.hypot(0.004, 0.001), 15);
   });
 
-  it('σ/σ_R sys: the angle through ∂ln(σ_ref/σ_R)/∂θ and the run energy through ∂lnσ_R/∂E', () => {
+  it('σ/σ_R sys: the angle through ∂ln(σ_ref/σ_R)/∂θ and the run energy through ∂lnσ_R/∂E (README, "Uncertainties"; JCGM 100:2008 §5.1.6)', () => {
     const ln = (e: number, t: number) => Math.log(darwinLabMbPerSr(2, 6, M1, M2, e, t) * lecuyerF(2, 6, (e * M2) / (M1 + M2)));
     const dLnCDTheta = (ln(2000, 150 + 1e-4) - ln(2000, 150 - 1e-4)) / 2e-4;
     const dLnCDE = (ln(2000.01, 150) - ln(1999.99, 150)) / 0.02;
@@ -175,7 +175,7 @@ describe('crossSectionRow: a hand case (README, "Cross sections"; 2000 keV 4He o
     expect(row.ratioToRutherfordSys / sys).toBeCloseTo(1, 6);
   });
 
-  it('identifiers and provenance columns', () => {
+  it('identifiers and provenance columns (README, cross_sections.arrow columns)', () => {
     expect(row).toMatchObject({ run: 'r002', detector: 'd01', peak: '12C elastic', target: 'c-foil', targetNuclide: '12C', referenceRuns: 'r001+r004', calibrationVersion: 'cal-a', chargeUC: 30, beamEnergyUncKeV: 2, angleLabUncDeg: 0.2 });
     expect(row.flags).toEqual([]);
   });
@@ -237,7 +237,7 @@ describe('crossSectionRow: rows without a value', () => {
     expect(row.crossSectionLabSysMbPerSr).toBeGreaterThan(0);
   });
 
-  it('flags from the window, the normalization and the caller are merged, de-duplicated and sorted', () => {
+  it('flags from the window, the normalization and the caller are merged, de-duplicated and sorted (README, "Flags")', () => {
     const row = crossSectionRow(rowInput({ normalization: { ...NORM, flags: ['reference-one-sided'] }, extraFlags: ['no-live-time', 'reference-one-sided'] }));
     expect(row.flags).toEqual(['no-live-time', 'reference-one-sided']);
   });

@@ -135,6 +135,7 @@ describe('ingest: a clean series (README, "Input layout")', () => {
       startedAtMs: Date.UTC(2026, 2, 2, 8, 30, 0),
       kind: 'reference',
       target: 'au-ref',
+      targetColumn: cellColumn(RUNLOG_ROWS[0]!, COL.target),
       beamEnergyKeV: 2000,
       beamEnergyUncKeV: 2,
       chargeUC: 4,
@@ -445,6 +446,13 @@ describe('ingest: what lab computers write is accepted and read the same (README
     expect(s.runs.map((r) => ({ ...r, note: '' }))).toEqual(clean.runs.map((r) => ({ ...r, note: '' })));
   });
 
+  it('a spectrum file named with an upper-case extension (r003.CSV, as Windows tools write) is that run\'s spectrum', () => {
+    // The engine lists spectra/*.csv without regard to case; ingest must then find the file under the name it has.
+    const s = okSeries(ingest(input({ spectra: ['r001.csv', 'r002.csv', 'r003.CSV', 'r004.csv'] })));
+    expect(s.setAside.size).toBe(0);
+    expect(s.spectrumFiles.get('r003')).toBe('spectra/r003.CSV');
+  });
+
   it('spaces around fields, a space instead of T, an offset and fractional seconds in started_at', () => {
     const rows = RUNLOG_ROWS.map((r) => (r[0] === 'r002' ? r.map((c, i) => (i === COL.started_at ? '2026-03-02 09:45:00.000+01:00' : ` ${c} `)) : r));
     const s = okSeries(ingest(input({ runlogRows: rows })));
@@ -475,6 +483,13 @@ describe('ingestSpectrum: the header must name exactly the series\' detectors (R
     expect(d).toMatchObject({ severity: 'error', file: 'spectra/r001.csv', line: 1, run: 'r001', stage: 'ingest', expected: 'channel,d01,d02', actual: 'channel,d01,d03' });
     expect(d.message).toContain('unknown detector column(s) d03');
     expect(d.message).toContain('no column for detector(s) d02');
+    expect(d.column).toBe('channel,d01,'.length + 1);
+  });
+
+  it('BOM, ";" and a quoted unknown name: the column is that of the name itself', () => {
+    const out = ingestSpectrum(bytes('\uFEFFchannel;d01;"d03"\r\n0;1;2\r\n'), 'spectra/r001.csv', 'r001', ['d01', 'd02']);
+    const d = out.diagnostics.find((x) => x.rule === 'spectrum-detector-columns')!;
+    expect(d).toMatchObject({ line: 1, column: 'channel;d01;"'.length + 1, actual: 'channel,d01,d03' });
   });
 
   it('a missing detector column alone', () => {
@@ -484,6 +499,18 @@ describe('ingestSpectrum: the header must name exactly the series\' detectors (R
     expect(d.message).toContain('no column for detector(s) d02');
     expect(d.message).not.toContain('unknown');
     expect(d.actual).toBe('channel,d01');
+  });
+
+  it('a file that ends inside its last row (no final line end) is diagnosed as truncated', () => {
+    const out = ingestSpectrum(bytes('channel,d01,d02\n0,1,2\n1,3'), 'spectra/r002.csv', 'r002', ['d01', 'd02']);
+    expect(out.spectrum).toBeNull();
+    expect(out.diagnostics.map((d) => d.rule)).toEqual(['spectrum-ragged-row', 'spectrum-truncated']);
+    expect(out.diagnostics[1]).toMatchObject({ severity: 'error', file: 'spectra/r002.csv', line: 3, run: 'r002' });
+  });
+
+  it('the same short row followed by a line end is ragged, not truncated', () => {
+    const out = ingestSpectrum(bytes('channel,d01,d02\n0,1,2\n1,3\n'), 'spectra/r002.csv', 'r002', ['d01', 'd02']);
+    expect(out.diagnostics.map((d) => d.rule)).toEqual(['spectrum-ragged-row']);
   });
 
   it('a parse error of the bytes carries the run and the ingest stage', () => {

@@ -151,6 +151,47 @@ describe('normalize: effective solid angle from a reference run (thin-target yie
   });
 });
 
+describe('normalize: the reference element and its isotopes (README, "Normalization")', () => {
+  const N = 20000;
+  const withTargets = (layers: object[]) =>
+    seriesSchema.parse({
+      series: 'normalize-isotopes',
+      beam: { projectile: '4He', charge_state: 1 },
+      detectors: [{ id: 'd01', angle_deg: 150, angle_unc_deg: 0.2, resolution_fwhm_keV: 15, solid_angle_msr: 2.5 }],
+      targets: [
+        { id: 'au-ref', layers },
+        { id: 'c-foil', layers: [{ composition: { C: 1 }, areal_density_1e15_per_cm2: 150 }] },
+      ],
+      peaks: [{ label: '12C elastic', target_nuclide: '12C' }],
+      normalization: { reference_target: 'au-ref' },
+    });
+  const one = (cfg: SeriesConfig) => normalize({ config: cfg, referenceRuns: [run('r001', 'reference', 0)], sampleRuns: [], measured: measured([['r001', 'd01', N]]) });
+
+  it('a carbon backing under the gold changes nothing: the heaviest element (Au) normalizes', () => {
+    const bare = one(withTargets([{ composition: { Au: 1 }, areal_density_1e15_per_cm2: 60, areal_density_unc_rel: 0.03 }]));
+    const backed = one(withTargets([
+      { composition: { Au: 1 }, areal_density_1e15_per_cm2: 60, areal_density_unc_rel: 0.03 },
+      { composition: { C: 1 }, areal_density_1e15_per_cm2: 40, areal_density_unc_rel: 0.1 },
+    ]));
+    expect(backed.element).toBe('Au');
+    expect(backed.points[0]!.solidAngleMsr).toBeCloseTo(bare.points[0]!.solidAngleMsr!, 12);
+    expect(backed.points[0]!.relAreal).toBe(0.03);
+  });
+
+  it('natural silver: ΔΩ = N / (Q/e · Σ n_i σ_R,i F_i · f) over 107Ag and 109Ag (IUPAC 2013 0.51839 / 0.48161; AME2020 106.905091509 u, 108.904755778 u)', () => {
+    const out = one(withTargets([{ composition: { Ag: 1 }, areal_density_1e15_per_cm2: 80, areal_density_unc_rel: 0.02 }]));
+    expect(out.element).toBe('Ag');
+    let sum = 0;
+    for (const [x, m2] of [[0.51839, 106.905091509], [0.48161, 108.904755778]] as const) {
+      sum += 80e15 * x * darwinLabMbPerSr(2, 47, M_HE4_U, m2, 2000, 150) * lecuyerF(2, 47, (2000 * m2) / (m2 + M_HE4_U));
+    }
+    const expectedMsr = (N / ((4e-6 / E_CHARGE_C) * sum * 1e-27 * 0.95)) * 1000;
+    expect(out.points[0]!.solidAngleMsr! / expectedMsr).toBeCloseTo(1, 9);
+    // the tabulated cross section is the isotope average Σ n_i σ_i / n
+    expect(out.points[0]!.rutherfordMbPerSr / (sum / 80e15)).toBeCloseTo(1, 9);
+  });
+});
+
 describe('normalize: the bracketing rule (README, "Which reference runs")', () => {
   const N = 32000;
   // two reference runs 2 h apart with different yields, so interpolation is visible
@@ -209,7 +250,7 @@ describe('normalize: the bracketing rule (README, "Which reference runs")', () =
     expect(x.flags).toEqual([]);
   });
 
-  it('detector summary: weighted mean between the two, chi² of the two points, ndf 1', () => {
+  it('detector summary: the weighted mean lies between the two points, ndf = points − 1 (inverse-variance weighting, common practice)', () => {
     const d = out.detectors[0]!;
     expect(d.ndf).toBe(1);
     expect(d.meanMsr!).toBeGreaterThan(a);
