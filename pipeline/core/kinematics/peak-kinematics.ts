@@ -19,25 +19,7 @@ export interface PeakKinematics {
 
 export type PeakKinematicsResult = { ok: true; value: PeakKinematics } | { ok: false; reason: string };
 
-/**
- * Memo of computed kinematics: the plan and the extract stage ask for the same peaks of the
- * same runs. Bounded: cleared when it reaches MEMO_LIMIT entries.
- */
-const memo = new Map<string, PeakKinematicsResult>();
-const MEMO_LIMIT = 200_000;
-
 export function peakKinematics(projectile: Nuclide, targetNuclide: string, excitationKeV: number, qOverrideKeV: number | undefined, beamEnergyKeV: number, thetaLabDeg: number): PeakKinematicsResult {
-  const key = `${projectile.name}|${targetNuclide}|${excitationKeV}|${qOverrideKeV}|${beamEnergyKeV}|${thetaLabDeg}`;
-  let result = memo.get(key);
-  if (result === undefined) {
-    if (memo.size >= MEMO_LIMIT) memo.clear();
-    result = computePeakKinematics(projectile, targetNuclide, excitationKeV, qOverrideKeV, beamEnergyKeV, thetaLabDeg);
-    memo.set(key, result);
-  }
-  return result;
-}
-
-function computePeakKinematics(projectile: Nuclide, targetNuclide: string, excitationKeV: number, qOverrideKeV: number | undefined, beamEnergyKeV: number, thetaLabDeg: number): PeakKinematicsResult {
   const target = nuclide(targetNuclide);
   // Scattering (elastic or inelastic): ejectile = projectile, residual = the target nucleus,
   // so the ground-state masses cancel and Q = −Ex exactly.
