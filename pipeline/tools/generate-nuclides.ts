@@ -92,7 +92,8 @@ ${body}
 
 function main(): void {
   const here = dirname(fileURLToPath(import.meta.url));
-  const input = resolve(process.argv[2] ?? '/work/shared/reference-data/ame2020/mass.mas20.txt');
+  // Default: the reference copy beside the checkout (../shared/reference-data/ame2020/).
+  const input = resolve(process.argv[2] ?? resolve(here, '../../../shared/reference-data/ame2020/mass.mas20.txt'));
   const output = resolve(here, '../core/physics/ame2020-masses.ts');
   const rows = parseAmeFile(readFileSync(input, 'utf8'));
   writeFileSync(output, renderModule(rows));
