@@ -1,9 +1,10 @@
 import { createHash } from 'node:crypto';
 import { join, resolve } from 'node:path';
 import type { Diagnostic } from '../core/diagnostics/diagnostic.js';
+import { energyUncertaintyKeV, type EnergyCalibration } from '../core/calibration/energy-calibration.js';
 import { liveFraction, type LiveFraction } from '../core/counting/live-fraction.js';
 import type { MeasuredPeak, PeakRequest } from '../core/counting/peak-window.js';
-import type { CrossSectionRow, QcRow, YieldRow } from '../core/model/result-rows.js';
+import type { QcRow, YieldRow } from '../core/model/result-rows.js';
 import { resolveTarget } from '../core/model/resolve-target.js';
 import type { IngestedSeries, RunRecord } from '../core/model/series-model.js';
 import { ABUNDANCE_EDITION, MASS_TABLE_EDITION, nuclide } from '../core/physics/nuclides.js';
@@ -212,7 +213,7 @@ function auditRows(
   setAside: ReadonlyMap<string, Diagnostic[]>,
   results: ReadonlyMap<string, MeasureResult>,
   live: ReadonlyMap<string, ReadonlyMap<string, LiveFraction>>,
-  calByRun: ReadonlyMap<string, { version: string }>,
+  calByRun: ReadonlyMap<string, { version: string; detectors: ReadonlyMap<string, EnergyCalibration> }>,
 ): { yields: YieldRow[]; qc: QcRow[] } {
   const yields: YieldRow[] = [];
   const qc: QcRow[] = [];
@@ -254,6 +255,7 @@ function auditRows(
           peak: p.request.key,
           expectedEnergyKeV: w.expectedEnergyKeV,
           expectedChannel: w.expectedChannel,
+          calibrationEnergyUncKeV: energyUncertaintyKeV(calByRun.get(run.run)!.detectors.get(d.id)!, w.expectedChannel),
           fwhmKeV: w.fwhmKeV,
           peakLo: w.peak?.lo ?? Number.NaN,
           peakHi: w.peak?.hi ?? Number.NaN,
@@ -275,4 +277,3 @@ function auditRows(
   return { yields, qc };
 }
 
-export type { CrossSectionRow };

@@ -29,6 +29,7 @@ export const YIELD_COLUMNS: readonly ColumnSpec<YieldRow>[] = [
   { name: 'peak', type: 'utf8', description: 'peak label, or "reference <element>"', value: (r) => r.peak },
   { name: 'expected_energy_keV', type: 'float64', unit: 'keV', description: 'expected peak energy from kinematics', value: (r) => r.expectedEnergyKeV },
   { name: 'expected_channel', type: 'float64', unit: 'channel', description: 'expected peak position through the calibration', value: (r) => r.expectedChannel },
+  { name: 'calibration_energy_unc_keV', type: 'float64', unit: 'keV', description: 'standard uncertainty of the calibrated energy at the expected channel (from the calibration covariance)', value: (r) => r.calibrationEnergyUncKeV },
   { name: 'fwhm_keV', type: 'float64', unit: 'keV', description: 'expected peak width used for the windows', value: (r) => r.fwhmKeV },
   { name: 'peak_first_channel', type: 'int32', unit: 'channel', description: 'first channel of the peak window', value: (r) => r.peakLo },
   { name: 'peak_last_channel', type: 'int32', unit: 'channel', description: 'last channel of the peak window', value: (r) => r.peakHi },

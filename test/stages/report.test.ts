@@ -69,8 +69,8 @@ const DETECTORS: DetectorNormalization[] = [
   { detector: 'd02', nominalMsr: 2.5, meanMsr: null, chi2: 0, ndf: 0 },
 ];
 const YIELDS: YieldRow[] = [
-  { run: 'r002', kind: 'sample', detector: 'd01', peak: '12C elastic', expectedEnergyKeV: 503.2, expectedChannel: 251.6, fwhmKeV: 15, peakLo: 240, peakHi: 263, leftLo: 224, leftHi: 235, rightLo: 267, rightHi: 278, grossCounts: 5200, backgroundCounts: 200, backgroundUnc: 12.2, netCounts: 5000, netCountsUnc: 73.1, centroidShiftKeV: 0.4, flags: [] },
-  { run: 'r001', kind: 'reference', detector: 'd02', peak: 'reference Au', expectedEnergyKeV: 1850, expectedChannel: Number.NaN, fwhmKeV: 15, peakLo: Number.NaN, peakHi: Number.NaN, leftLo: Number.NaN, leftHi: Number.NaN, rightLo: Number.NaN, rightHi: Number.NaN, grossCounts: Number.NaN, backgroundCounts: Number.NaN, backgroundUnc: Number.NaN, netCounts: Number.NaN, netCountsUnc: Number.NaN, centroidShiftKeV: Number.NaN, flags: ['peak-outside-spectrum'] },
+  { run: 'r002', kind: 'sample', detector: 'd01', peak: '12C elastic', expectedEnergyKeV: 503.2, expectedChannel: 251.6, calibrationEnergyUncKeV: 0.31, fwhmKeV: 15, peakLo: 240, peakHi: 263, leftLo: 224, leftHi: 235, rightLo: 267, rightHi: 278, grossCounts: 5200, backgroundCounts: 200, backgroundUnc: 12.2, netCounts: 5000, netCountsUnc: 73.1, centroidShiftKeV: 0.4, flags: [] },
+  { run: 'r001', kind: 'reference', detector: 'd02', peak: 'reference Au', expectedEnergyKeV: 1850, expectedChannel: Number.NaN, calibrationEnergyUncKeV: Number.NaN, fwhmKeV: 15, peakLo: Number.NaN, peakHi: Number.NaN, leftLo: Number.NaN, leftHi: Number.NaN, rightLo: Number.NaN, rightHi: Number.NaN, grossCounts: Number.NaN, backgroundCounts: Number.NaN, backgroundUnc: Number.NaN, netCounts: Number.NaN, netCountsUnc: Number.NaN, centroidShiftKeV: Number.NaN, flags: ['peak-outside-spectrum'] },
 ];
 const QC: QcRow[] = [
   { run: 'r002', kind: 'sample', detector: 'd01', status: 'reduced', reason: '', rule: '', calibrationVersion: 'cal-a', liveFraction: 0.9, liveFractionUnc: 0.0021, liveSource: 'pulser', totalCounts: 123456, channelCount: 1024, peakShiftKeV: 0.4, flags: [] },

@@ -41,8 +41,3 @@ export function energyUncertaintyKeV(cal: EnergyCalibration, channel: number): n
   for (let i = 0; i < n; i++) for (let k = 0; k < n; k++) v += j[i]! * cal.covariance[i]![k]! * j[k]!;
   return Math.sqrt(Math.max(v, 0));
 }
-
-/** dE/dch at a channel, keV per channel. */
-export function dispersionKeVPerChannel(cal: EnergyCalibration, channel: number): number {
-  return cal.gainKeVPerChannel + 2 * cal.quadraticKeVPerChannel2 * channel;
-}

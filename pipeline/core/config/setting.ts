@@ -5,11 +5,6 @@ import { z } from 'zod';
  * a one-line doc and the unit. The config validator, the JSON Schema in configs/, the
  * CLI help and the README settings table are all generated from these definitions.
  */
-export interface SettingMeta {
-  description: string;
-  unit?: string;
-}
-
 export function numberSetting(opts: { default: number; min?: number; max?: number; unit?: string; doc: string }) {
   let s = z.number();
   if (opts.min !== undefined) s = s.min(opts.min);

@@ -1,4 +1,4 @@
-import { channelToEnergyKeV, energyToChannel, type EnergyCalibration } from '../calibration/energy-calibration.js';
+import { energyToChannel, type EnergyCalibration } from '../calibration/energy-calibration.js';
 
 /**
  * Where to integrate a peak: a channel window centred on the expected energy, and a
@@ -79,11 +79,6 @@ export function planPeakWindow(
     rightKeV,
     flags,
   };
-}
-
-/** Energy of the centre of a channel range's edges, for reporting the window actually used. */
-export function rangeEnergiesKeV(cal: EnergyCalibration, r: ChannelRange): [number, number] {
-  return [channelToEnergyKeV(cal, r.lo), channelToEnergyKeV(cal, r.hi)];
 }
 
 /** A peak a stage wants measured in one detector of one run: where it should be and how wide. */

@@ -27,11 +27,3 @@ export interface Diagnostic {
   /** What to do about it. */
   hint?: string;
 }
-
-export function diagnostic(d: Diagnostic): Diagnostic {
-  return d;
-}
-
-export function isError(d: Diagnostic): boolean {
-  return d.severity === 'error';
-}

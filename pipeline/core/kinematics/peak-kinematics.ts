@@ -49,7 +49,3 @@ export function peakKinematics(projectile: Nuclide, targetNuclide: string, excit
   }
   return { ok: true, value: { energyKeV: energies[0]!, qValueKeV: q, thetaCmDeg, jacobianLabPerCm: solidAngleJacobianLabPerCm(thetaCmDeg, gamma), gamma } };
 }
-
-export function projectileNuclide(name: string): Nuclide {
-  return nuclide(name);
-}

@@ -110,6 +110,8 @@ export interface YieldRow {
   peak: string;
   expectedEnergyKeV: number;
   expectedChannel: number;
+  /** Standard uncertainty of the energy at the expected channel from the calibration covariance, keV. */
+  calibrationEnergyUncKeV: number;
   fwhmKeV: number;
   peakLo: number;
   peakHi: number;
