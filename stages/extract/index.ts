@@ -56,6 +56,7 @@ export function extract(input: ExtractInput): ExtractOutput {
   for (const run of input.sampleRuns) {
     const resolved = resolvedByTarget.get(run.target)!;
     const nuclidesHere = [...new Set(resolved.map((r) => r.nuclide))];
+    const areals = config.peaks.map((p) => nuclideAreal(resolved, p.target_nuclide));
     for (const det of config.detectors) {
       // Every peak this spectrum is expected to hold: each nuclide's elastic peak and the configured peaks.
       const lines: KnownLine[] = nuclidesHere.map((n) => {
@@ -71,8 +72,8 @@ export function extract(input: ExtractInput): ExtractOutput {
         const k = peakKinematics(projectile, p.target_nuclide, p.excitation_keV, p.q_value_keV, run.beamEnergyKeV, det.angle_deg);
         lines.push({ name: p.label, energyKeV: k.ok ? k.value.energyKeV : Number.NaN, strength: Number.POSITIVE_INFINITY });
       }
-      for (const peak of config.peaks) {
-        const areal = nuclideAreal(resolved, peak.target_nuclide);
+      for (const [pi, peak] of config.peaks.entries()) {
+        const areal = areals[pi]!;
         if (areal === null) continue;
         const key = measuredKey(det.id, peak.label);
         const measured = input.measured.get(run.run)?.get(key) ?? null;

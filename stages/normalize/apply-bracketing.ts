@@ -1,7 +1,6 @@
 import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import type { AppliedNormalization, ReferencePoint } from '../../pipeline/core/model/result-rows.js';
 
-
 /**
  * The `bracketing` rule: a sample run at time t uses the nearest usable reference run at or
  * before t and the nearest at or after t, interpolated linearly in time,
@@ -11,15 +10,50 @@ import type { AppliedNormalization, ReferencePoint } from '../../pipeline/core/m
  * Independent parts combine as sqrt(Σ (w_i ΔΩ_i u_i)²)/ΔΩ; shared parts linearly.
  */
 export function applyBracketing(sample: RunRecord, points: readonly ReferencePoint[]): AppliedNormalization | null {
-  const usable = points.filter((p) => p.solidAngleMsr !== null);
-  if (usable.length === 0) return null;
-  const t = sample.startedAtMs;
-  let before: ReferencePoint | undefined;
-  let after: ReferencePoint | undefined;
-  for (const p of usable) {
-    if (p.startedAtMs <= t && (before === undefined || p.startedAtMs >= before.startedAtMs)) before = p;
-    if (p.startedAtMs >= t && (after === undefined || p.startedAtMs < after.startedAtMs)) after = p;
-  }
+  return prepareBracketing(points)(sample);
+}
+
+/**
+ * The same rule, prepared once per detector: usable points sorted by start time (stable, so
+ * runlog order breaks ties), then two binary searches per sample run — O(log n) per run
+ * instead of a scan of every reference run.
+ */
+export function prepareBracketing(points: readonly ReferencePoint[]): (sample: RunRecord) => AppliedNormalization | null {
+  const usable = points
+    .map((p, i) => ({ p, i }))
+    .filter(({ p }) => p.solidAngleMsr !== null)
+    .sort((a, b) => a.p.startedAtMs - b.p.startedAtMs || a.i - b.i)
+    .map(({ p }) => p);
+  const firstAtOrAfter = (t: number) => {
+    let lo = 0;
+    let hi = usable.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (usable[mid]!.startedAtMs < t) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  };
+  const firstAfter = (t: number) => {
+    let lo = 0;
+    let hi = usable.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (usable[mid]!.startedAtMs <= t) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  };
+  return (sample) => {
+    if (usable.length === 0) return null;
+    const t = sample.startedAtMs;
+    const before = usable[firstAfter(t) - 1];
+    const after = usable[firstAtOrAfter(t)];
+    return combine(before, after, t);
+  };
+}
+
+function combine(before: ReferencePoint | undefined, after: ReferencePoint | undefined, t: number): AppliedNormalization {
   const flags: string[] = [];
   let chosen: { p: ReferencePoint; w: number }[];
   if (before && after && before !== after && after.startedAtMs > before.startedAtMs) {

@@ -4,7 +4,7 @@ import type { MeasuredPeak } from '../../pipeline/core/counting/peak-window.js';
 import type { LiveFraction } from '../../pipeline/core/counting/live-fraction.js';
 import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import { nuclide } from '../../pipeline/core/physics/nuclides.js';
-import { applyBracketing } from './apply-bracketing.js';
+import { prepareBracketing } from './apply-bracketing.js';
 import type { AppliedNormalization, DetectorNormalization, ReferencePoint } from '../../pipeline/core/model/result-rows.js';
 import { referenceComposition } from './reference-nuclides.js';
 import { referencePoint, runRelUnc } from './reference-point.js';
@@ -87,9 +87,10 @@ export function normalize(input: NormalizeInput): NormalizeOutput {
     points.push(...list);
   }
   const applied = new Map<string, Map<string, AppliedNormalization | null>>();
+  const rules = new Map(config.detectors.map((d) => [d.id, prepareBracketing(byDetector.get(d.id) ?? [])]));
   for (const s of input.sampleRuns) {
     const per = new Map<string, AppliedNormalization | null>();
-    for (const det of config.detectors) per.set(det.id, applyBracketing(s, byDetector.get(det.id) ?? []));
+    for (const det of config.detectors) per.set(det.id, rules.get(det.id)!(s));
     applied.set(s.run, per);
   }
   return { element: ref.element, points, detectors, applied, diagnostics };
