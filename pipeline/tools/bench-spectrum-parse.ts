@@ -8,24 +8,20 @@
  */
 import { cpus } from 'node:os';
 import { parseSpectrumCsv } from '../core/formats/spectrum-csv.js';
+import { Xoshiro128StarStar } from '../simulate/random/xoshiro128-star-star.js';
+
+/** The project's seeded generator (the simulator's), as a function returning uniforms in [0, 1). */
+const uniform = (seed: number): (() => number) => {
+  const g = Xoshiro128StarStar.fromSeed(seed);
+  return () => g.nextFloat64();
+};
 
 const CHANNELS = 4096;
 const DETECTORS = 16;
 
-/** Mulberry32, a small seeded 32-bit generator; uniform in [0, 1). */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 function benchSpectrumText(seed: number): string {
-  const random = mulberry32(seed);
+  const random = uniform(seed);
   const gauss = (): number => Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random());
   const ids = Array.from({ length: DETECTORS }, (_, k) => `d${String(k + 1).padStart(2, '0')}`);
   const lines = [`channel,${ids.join(',')}`];

@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { parseSpectrumCsv } from '../../../pipeline/core/formats/spectrum-csv.js';
+import { Xoshiro128StarStar } from '../../../pipeline/simulate/random/xoshiro128-star-star.js';
+
+/** The project's seeded generator (the simulator's), as a function returning uniforms in [0, 1). */
+const uniform = (seed: number): (() => number) => {
+  const g = Xoshiro128StarStar.fromSeed(seed);
+  return () => g.nextFloat64();
+};
 
 // Layout under test: DESIGN.md "Run-series layout" — header `channel,<detector ids…>`, then one row
 // per channel 0…N−1 in order, non-negative integer counts.
@@ -14,17 +21,6 @@ function ok(text: string) {
   return { ...r, spectrum: r.spectrum, values: r.spectrum.counts.map((c) => Array.from(c)) };
 }
 
-/** Mulberry32 (a public-domain 32-bit generator), so every random case is reproducible. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 describe('accepted lab-machine variants (common practice)', () => {
   const plain = 'channel,d01,d02\n0,5,0\n1,17,3\n2,0,250\n';
@@ -228,7 +224,7 @@ describe('refusals: rule, line and 1-based column of the offending field', () =>
 
 describe('exact values', () => {
   it('round-trips a seeded random spectrum written as CSV text (exact comparison)', () => {
-    const random = mulberry32(7);
+    const random = uniform(7);
     const detectors = 7;
     const channels = 1500;
     const truth = Array.from({ length: detectors }, () =>
@@ -248,7 +244,7 @@ describe('exact values', () => {
   });
 
   it('round-trips the same spectrum with random lab-machine padding, decimals and CRLF', () => {
-    const random = mulberry32(11);
+    const random = uniform(11);
     const truth = Array.from({ length: 4 }, () => Array.from({ length: 300 }, () => Math.floor(random() * 100000)));
     const field = (v: number): string => {
       const pad = [' ', '\t', '', ''][Math.floor(random() * 4)];
