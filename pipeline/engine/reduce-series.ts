@@ -100,7 +100,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   }
 
   phase('plan');
-  // Measure (streamed, both cores).
+  // Measure: spectra streamed through runMeasurements (worker threads when --jobs > 1).
   const results = new Map<string, MeasureResult>();
   await runMeasurements(tasks, opts.jobs, (r) => {
     if (!r.ok) aside(r.run, r.diagnostics.filter((d) => d.severity === 'error'));
@@ -113,6 +113,12 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   const usable = (kind: RunRecord['kind']) => series.runs.filter((r) => r.kind === kind && !setAside.has(r.run) && results.get(r.run)?.ok === true);
   const referenceRuns = usable('reference');
   const sampleRuns = usable('sample');
+  if (referenceRuns.length === 0) {
+    // Every reference spectrum was unusable: nothing can be normalized, so nothing is written.
+    for (const ds of setAside.values()) diagnostics.push(...ds);
+    diagnostics.push({ severity: 'error', rule: 'series-no-reference-run', stage: 'engine', file: 'runlog.csv', message: 'no reference run has a usable spectrum: the series cannot be normalized' });
+    return { exitCode: EXIT.usage, diagnostics, counts: emptyCounts, phasesMs };
+  }
   for (const r of [...referenceRuns, ...sampleRuns]) {
     live.set(r.run, new Map(config.detectors.map((d) => [d.id, liveFraction(series.scalers?.get(r.run)?.get(d.id), r.realTimeS)])));
   }
