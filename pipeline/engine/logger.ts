@@ -7,7 +7,7 @@ import { pino, type Logger } from 'pino';
 export async function createLogger(level: string): Promise<Logger> {
   if (process.stderr.isTTY) {
     const { default: pretty } = await import('pino-pretty');
-    return pino({ level }, pretty({ destination: 2, sync: true, ignore: 'pid,hostname', translateTime: 'HH:MM:ss' }));
+    return pino({ level }, pretty({ destination: 2, sync: true, ignore: 'pid,hostname', translateTime: 'HH:MM:ss', hideObject: true }));
   }
   return pino({ level, base: { name: 'xsred' } }, pino.destination({ fd: 2, sync: true }));
 }
