@@ -1,7 +1,9 @@
-import { readFileSync } from 'node:fs';
+import { ReusableFileReader } from './read-file-reusing.js';
 import { measureRun, type MeasureResult, type MeasureTask } from './measure-run.js';
 
 /** Worker-thread entry (piscina): read the file here, so both cores parse. */
+const reader = new ReusableFileReader();
+
 export default function measureWorker(task: MeasureTask): MeasureResult {
-  return measureRun(task, readFileSync(task.path));
+  return measureRun(task, reader.read(task.path));
 }

@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs';
+import { ReusableFileReader } from './read-file-reusing.js';
 import { fileURLToPath } from 'node:url';
 import PQueue from 'p-queue';
 import { measureRun, type MeasureResult, type MeasureTask } from './measure-run.js';
@@ -12,10 +12,11 @@ export async function runMeasurements(tasks: readonly MeasureTask[], jobs: numbe
   if (jobs <= 1 || tasks.length < 4) {
     // In this thread. (Reading ahead asynchronously was measured slower here: page-cache reads
     // are faster than the thread-pool round trips.)
+    const reader = new ReusableFileReader();
     for (const t of tasks) {
       let result: MeasureResult;
       try {
-        result = measureRun(t, readFileSync(t.path));
+        result = measureRun(t, reader.read(t.path));
       } catch (e) {
         result = failed(t, e);
       }

@@ -24,6 +24,7 @@ export function peakKinematics(projectile: Nuclide, targetNuclide: string, excit
   // Scattering (elastic or inelastic): ejectile = projectile, residual = the target nucleus,
   // so the ground-state masses cancel and Q = −Ex exactly.
   const q = qOverrideKeV ?? (excitationKeV === 0 ? 0 : -excitationKeV);
+  // One object literal of a fixed shape (an object spread here cost more than the physics).
   const params = {
     projectileMassU: projectile.massU,
     targetMassU: target.massU,
@@ -31,10 +32,11 @@ export function peakKinematics(projectile: Nuclide, targetNuclide: string, excit
     residualMassU: target.massU,
     beamEnergyKeV,
     qValueKeV: q,
+    thetaLabDeg,
   };
   let energies: number[];
   try {
-    energies = ejectileEnergiesNonRelKeV({ ...params, thetaLabDeg });
+    energies = ejectileEnergiesNonRelKeV(params);
   } catch (e) {
     return { ok: false, reason: (e as Error).message };
   }
