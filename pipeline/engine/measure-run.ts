@@ -28,43 +28,55 @@ export interface MeasureResult {
   channelCount: number;
   /** Total counts per detector (task order). */
   totals: number[];
-  peaks: MeasuredPeak[];
+  /**
+   * Per request (task order), 4 numbers: gross, Σ ch·counts over the peak window, left and right
+   * background sums (NaN when the peak window is outside the spectrum). A flat typed array
+   * crosses the worker boundary as one copy; the windows are re-planned from the task.
+   */
+  sums: Float64Array;
   diagnostics: Diagnostic[];
 }
 
-/**
- * Reads one spectrum's bytes and measures every requested peak: windows from kinematics
- * through the run's calibration, sums, net counts above the linear background, centroid
- * shift. Pure apart from the hash; runs in a worker thread or in-process alike.
- */
+export const SUMS_PER_REQUEST = 4;
+
 /** One per thread: measureRun keeps nothing of a spectrum once it has returned. */
 const scratch = new SpectrumScratch();
 
+/**
+ * Reads one spectrum's bytes and sums every requested peak window and its background
+ * windows (placed from kinematics through the run's calibration). Pure apart from the hash;
+ * runs in a worker thread or in-process alike.
+ */
 export function measureRun(task: MeasureTask, bytes: Uint8Array): MeasureResult {
   const sha256 = createHash('sha256').update(bytes).digest('hex');
   const ingested = ingestSpectrum(bytes, task.file, task.run, task.detectorIds, scratch);
   const base = { run: task.run, sha256, diagnostics: ingested.diagnostics };
-  if (ingested.spectrum === null) return { ...base, ok: false, channelCount: 0, totals: [], peaks: [] };
+  if (ingested.spectrum === null) return { ...base, ok: false, channelCount: 0, totals: [], sums: new Float64Array(0) };
   const s = ingested.spectrum;
   const totals = s.counts.map((c) => {
     let t = 0;
     for (let i = 0; i < c.length; i++) t += c[i]!;
     return t;
   });
-  const peaks: MeasuredPeak[] = [];
-  for (const request of task.requests) {
-    const di = task.detectorIds.indexOf(request.detector);
+  const sums = new Float64Array(task.requests.length * SUMS_PER_REQUEST).fill(Number.NaN);
+  task.requests.forEach((request, i) => {
+    const window = planPeakWindow(task.calibrations[request.detector]!, s.channelCount, request.expectedEnergyKeV, request.fwhmKeV, task.widths);
+    if (window.peak === null) return;
+    const w = measureWindowSums(s.counts[task.detectorIds.indexOf(request.detector)]!, window.peak, window.left, window.right);
+    sums.set([w.gross, w.grossMoment, w.left, w.right], i * SUMS_PER_REQUEST);
+  });
+  return { ...base, ok: true, channelCount: s.channelCount, totals, sums };
+}
+
+/** The measured peaks of a run from its task and the sums: windows re-planned, net counts above background, centroid shift. */
+export function measuredPeaks(task: MeasureTask, result: MeasureResult): MeasuredPeak[] {
+  return task.requests.map((request, i) => {
     const cal = task.calibrations[request.detector]!;
-    const counts = s.counts[di]!;
-    const window = planPeakWindow(cal, s.channelCount, request.expectedEnergyKeV, request.fwhmKeV, task.widths);
-    if (window.peak === null) {
-      peaks.push({ request, window, net: null, shiftKeV: Number.NaN });
-      continue;
-    }
-    const sums = measureWindowSums(counts, window.peak, window.left, window.right);
-    const net = netCounts(sums, window.peak, window.left, window.right);
+    const window = planPeakWindow(cal, result.channelCount, request.expectedEnergyKeV, request.fwhmKeV, task.widths);
+    if (window.peak === null) return { request, window, net: null, shiftKeV: Number.NaN };
+    const o = i * SUMS_PER_REQUEST;
+    const net = netCounts({ gross: result.sums[o]!, grossMoment: result.sums[o + 1]!, left: result.sums[o + 2]!, right: result.sums[o + 3]! }, window.peak, window.left, window.right);
     const shiftKeV = Number.isFinite(net.centroidChannel) ? channelToEnergyKeV(cal, net.centroidChannel) - request.expectedEnergyKeV : Number.NaN;
-    peaks.push({ request, window, net, shiftKeV });
-  }
-  return { ...base, ok: true, channelCount: s.channelCount, totals, peaks };
+    return { request, window, net, shiftKeV };
+  });
 }

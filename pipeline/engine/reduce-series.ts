@@ -16,7 +16,7 @@ import { extract, measuredKey, planPeakWindows } from '../../stages/extract/inde
 import { report } from '../../stages/report/index.js';
 import { writeFileAtomic } from './atomic-write.js';
 import { EXIT } from './exit-codes.js';
-import type { MeasureResult, MeasureTask } from './measure-run.js';
+import { measuredPeaks, type MeasureResult, type MeasureTask } from './measure-run.js';
 import { readSeriesFiles } from './read-series-files.js';
 import { runMeasurements } from './run-measurements.js';
 import { canonicalJson } from './canonical-json.js';
@@ -102,10 +102,13 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   phase('plan');
   // Measure: spectra streamed through runMeasurements (worker threads when --jobs > 1).
   const results = new Map<string, MeasureResult>();
+  const peaksByRun = new Map<string, Map<string, MeasuredPeak>>();
+  const taskOf = new Map(tasks.map((t) => [t.run, t]));
   await runMeasurements(tasks, opts.jobs, (r) => {
     if (!r.ok) aside(r.run, r.diagnostics.filter((d) => d.severity === 'error'));
     diagnostics.push(...r.diagnostics.filter((d) => d.severity !== 'error'));
     results.set(r.run, r);
+    if (r.ok) peaksByRun.set(r.run, new Map(measuredPeaks(taskOf.get(r.run)!, r).map((p) => [measuredKey(p.request.detector, p.request.key), p])));
   });
 
   phase('measure');
@@ -122,8 +125,6 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   for (const r of [...referenceRuns, ...sampleRuns]) {
     live.set(r.run, new Map(config.detectors.map((d) => [d.id, liveFraction(series.scalers?.get(r.run)?.get(d.id), r.realTimeS)])));
   }
-  const peaksByRun = new Map<string, Map<string, MeasuredPeak>>();
-  for (const [run, res] of results) if (res.ok) peaksByRun.set(run, new Map(res.peaks.map((p) => [measuredKey(p.request.detector, p.request.key), p])));
 
   const norm = normalize({
     config,
@@ -151,7 +152,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   diagnostics.push(...ext.diagnostics);
 
   phase('extract');
-  const { yields, qc } = auditRows(series, setAside, results, live, cal.byRun);
+  const { yields, qc } = auditRows(series, setAside, results, peaksByRun, live, cal.byRun);
   for (const ds of setAside.values()) diagnostics.push(...ds);
   const runIndex = new Map(series.runs.map((r) => [r.run, r.index]));
   diagnostics.sort(byRunOrder(runIndex));
@@ -218,6 +219,7 @@ function auditRows(
   series: IngestedSeries,
   setAside: ReadonlyMap<string, Diagnostic[]>,
   results: ReadonlyMap<string, MeasureResult>,
+  peaksByRun: ReadonlyMap<string, ReadonlyMap<string, MeasuredPeak>>,
   live: ReadonlyMap<string, ReadonlyMap<string, LiveFraction>>,
   calByRun: ReadonlyMap<string, { version: string; detectors: ReadonlyMap<string, EnergyCalibration> }>,
 ): { yields: YieldRow[]; qc: QcRow[] } {
@@ -228,9 +230,10 @@ function auditRows(
     const res = results.get(run.run);
     const reasons = setAside.get(run.run);
     const calVersion = calByRun.get(run.run)?.version ?? '';
+    const runPeaks = res?.ok ? [...peaksByRun.get(run.run)!.values()] : [];
     dets.forEach((d, di) => {
       const lf = live.get(run.run)?.get(d.id);
-      const peaks = res?.ok ? res.peaks.filter((p) => p.request.detector === d.id) : [];
+      const peaks = runPeaks.filter((p) => p.request.detector === d.id);
       const strongest = peaks.filter((p) => p.net !== null).sort((a, b) => b.net!.net - a.net!.net)[0];
       const first = reasons?.[0];
       const status: QcRow['status'] = reasons ? 'set-aside' : run.kind === 'calibration' || run.kind === 'background' ? 'not-reduced' : 'reduced';

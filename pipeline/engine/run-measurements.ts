@@ -28,7 +28,7 @@ export async function runMeasurements(tasks: readonly MeasureTask[], jobs: numbe
   const self = fileURLToPath(import.meta.url);
   const filename = self.endsWith('.ts') ? self.replace(/run-measurements\.ts$/, 'measure-worker.ts') : self.replace(/run-measurements\.js$/, 'measure-worker.js');
   const pool = new Piscina<MeasureTask, MeasureResult>({ filename, minThreads: jobs, maxThreads: jobs, idleTimeout: 1000 });
-  const queue = new PQueue({ concurrency: jobs * 2 });
+  const queue = new PQueue({ concurrency: jobs * 4 });
   try {
     for (const t of tasks) {
       void queue.add(async () => {
@@ -56,7 +56,7 @@ function failed(t: MeasureTask, e: unknown): MeasureResult {
     ok: false,
     channelCount: 0,
     totals: [],
-    peaks: [],
+    sums: new Float64Array(0),
     diagnostics: [{ severity: 'error', rule: 'spectrum-unreadable', stage: 'ingest', file: t.file, run: t.run, message: `could not read ${t.file}: ${err.code ?? ''} ${err.message}`.trim() }],
   };
 }
