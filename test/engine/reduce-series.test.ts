@@ -31,4 +31,18 @@ describe('reduceSeries (in-process, one thread)', () => {
     // 17 sample runs × 4 detectors × 2 peaks (12C and 16O elastic) in the demo spec
     expect(r.counts.rows).toBe(17 * 4 * 2);
   });
+  it('reads UTF-16 files with a byte-order mark (spreadsheet "Unicode text" exports) exactly as their UTF-8 originals (common practice of lab PCs)', async () => {
+    const dir = join(work, 'utf16');
+    cpSync(demo, dir, { recursive: true });
+    for (const f of ['runlog.csv', 'scalers.csv', 'spectra/r003.csv']) {
+      writeFileSync(join(dir, f), Buffer.from(`\ufeff${readFileSync(join(dir, f), 'utf8')}`, 'utf16le'));
+    }
+    const a = await reduceSeries({ seriesDir: dir, outDir: join(work, 'out-utf16'), jobs: 1, html: false, commandLine: [] });
+    const b = await reduceSeries({ seriesDir: demo, outDir: join(work, 'out-utf8'), jobs: 1, html: false, commandLine: [] });
+    expect(a.exitCode).toBe(0);
+    expect(a.diagnostics.filter((d) => d.rule === 'text-utf16').map((d) => d.file).sort()).toEqual(['runlog.csv', 'scalers.csv', 'spectra/r003.csv']);
+    const table = (o: string) => readFileSync(join(work, o, 'fval-2026-c12-alpha', 'cross_sections.arrow'));
+    expect(table('out-utf16').equals(table('out-utf8'))).toBe(true);
+    expect(b.exitCode).toBe(0);
+  });
 });
