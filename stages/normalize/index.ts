@@ -73,11 +73,12 @@ export function normalize(input: NormalizeInput): NormalizeOutput {
           p.flags.push('reference-outlier');
           diagnostics.push({ severity: 'warning', rule: 'reference-outlier', stage: 'normalize', run: p.run, detector: det.id, message: `effective solid angle ${p.solidAngleMsr!.toPrecision(4)} msr is ${pull.toFixed(1)} standard deviations from the detector's mean ${meanMsr.toPrecision(4)} msr`, hint: 'check this run\'s charge, live time and beam energy' });
         }
-        const dev = p.solidAngleMsr! / det.solid_angle_msr - 1;
-        if (Math.abs(dev) > config.normalization.nominal_tolerance_rel) {
-          p.flags.push('solid-angle-off-nominal');
-          diagnostics.push({ severity: 'warning', rule: 'solid-angle-off-nominal', stage: 'normalize', run: p.run, detector: det.id, message: `effective solid angle ${p.solidAngleMsr!.toPrecision(4)} msr differs from the nominal ${det.solid_angle_msr} msr by ${(dev * 100).toFixed(1)} %`, expected: `within ±${config.normalization.nominal_tolerance_rel * 100} % of nominal` });
-        }
+      }
+      // Geometry is a property of the detector: compare its mean, not each noisy run, with the nominal value.
+      const dev = meanMsr / det.solid_angle_msr - 1;
+      if (Math.abs(dev) > config.normalization.nominal_tolerance_rel) {
+        for (const p of usable) p.flags.push('solid-angle-off-nominal');
+        diagnostics.push({ severity: 'warning', rule: 'solid-angle-off-nominal', stage: 'normalize', detector: det.id, message: `effective solid angle of detector ${det.id}, ${meanMsr.toPrecision(4)} msr (mean of ${usable.length} reference run${usable.length === 1 ? '' : 's'}), differs from the nominal ${det.solid_angle_msr} msr by ${(dev * 100).toFixed(1)} %`, expected: `within ±${config.normalization.nominal_tolerance_rel * 100} % of nominal`, hint: 'check the detector geometry in series.yaml, the charge integration and the reference film' });
       }
     } else {
       diagnostics.push({ severity: 'error', rule: 'normalization-missing', stage: 'normalize', detector: det.id, message: `no usable reference run for detector ${det.id}: its sample rows cannot be normalized` });

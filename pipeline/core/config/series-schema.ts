@@ -62,7 +62,7 @@ export const normalizationSchema = z.strictObject({
     doc: 'which reference runs normalize a sample run: bracketing = interpolate in time between the nearest before and after',
   }),
   outlier_pull: numberSetting({ default: 3, min: 1, doc: 'a reference run further than this many standard deviations from its detector mean is flagged' }),
-  nominal_tolerance_rel: numberSetting({ default: 0.1, min: 0, doc: 'flag an effective solid angle further than this fraction from the nominal one' }),
+  nominal_tolerance_rel: numberSetting({ default: 0.1, min: 0, doc: "flag a detector whose mean effective solid angle is further than this fraction from the nominal one" }),
 });
 
 export const extractSettingsSchema = z.strictObject({
