@@ -20,4 +20,12 @@ describe('generated configuration files (regression: run `npm run schemas` when 
     const text = readFileSync(resolve(root, 'sample-runs/fval-2026-c12-alpha/series.yaml'), 'utf8');
     expect(seriesSchema.safeParse(parse(text)).success).toBe(true);
   });
+  it('the minimal series.yaml printed in the README validates', async () => {
+    const { parse } = await import('yaml');
+    const readme = readFileSync(resolve(root, 'README.md'), 'utf8');
+    const block = /A minimal `series.yaml`:\n\n```yaml\n([\s\S]*?)```/.exec(readme);
+    expect(block).not.toBeNull();
+    const r = seriesSchema.safeParse(parse(block![1]!));
+    expect(r.success, JSON.stringify(r.error?.issues)).toBe(true);
+  });
 });
