@@ -28,7 +28,7 @@ export async function runMeasurements(tasks: readonly MeasureTask[], jobs: numbe
   const self = fileURLToPath(import.meta.url);
   const filename = self.endsWith('.ts') ? self.replace(/run-measurements\.ts$/, 'measure-worker.ts') : self.replace(/run-measurements\.js$/, 'measure-worker.js');
   const pool = new Piscina<MeasureTask, MeasureResult>({ filename, minThreads: jobs, maxThreads: jobs, idleTimeout: 1000 });
-  const queue = new PQueue({ concurrency: jobs * 4 });
+  const queue = new PQueue({ concurrency: jobs * 16 });
   try {
     for (const t of tasks) {
       void queue.add(async () => {
