@@ -12,9 +12,13 @@ export interface IngestedSpectrum {
  * Any error sets the run aside (a spectrum with an unknown or a missing detector column
  * cannot be trusted to be this series' data).
  */
-export function ingestSpectrum(bytes: Uint8Array, file: string, run: string, detectorIds: readonly string[], scratch?: SpectrumScratch): { spectrum: IngestedSpectrum | null; diagnostics: Diagnostic[] } {
+export function ingestSpectrum(raw: Uint8Array, file: string, run: string, detectorIds: readonly string[], scratch?: SpectrumScratch): { spectrum: IngestedSpectrum | null; diagnostics: Diagnostic[] } {
+  const trailing = trailingDelimiter(raw);
+  // Spreadsheet exports may end every line with the delimiter; drop it (field columns are unchanged).
+  const bytes = trailing === null ? raw : stripTrailingDelimiters(raw, trailing);
   const parsed = parseSpectrumCsv(bytes, file, scratch);
   const diagnostics = parsed.diagnostics.map((d) => ({ ...d, run, stage: 'ingest' as const }));
+  if (trailing !== null) diagnostics.push({ severity: 'info', rule: 'spectrum-trailing-delimiter', file, line: 1, run, stage: 'ingest', message: 'lines end with a delimiter; the empty last field is ignored' });
   if (parsed.spectrum === null) {
     const last = bytes[bytes.length - 1];
     const cut = diagnostics.find((d) => d.rule === 'spectrum-ragged-row' || d.rule === 'spectrum-empty-field');
@@ -65,4 +69,35 @@ function headerColumn(bytes: Uint8Array, id: string): number | undefined {
   const escaped = id.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
   const m = new RegExp(`(^|[,;\\t])([ \\t]*"?)${escaped}"?[ \\t]*(?=[,;\\t\\r]|$)`).exec(text);
   return m === null ? undefined : m.index + m[1]!.length + m[2]!.length + 1;
+}
+
+/** The delimiter byte the header line ends with (`,` `;` or tab before its line break), or null. */
+function trailingDelimiter(bytes: Uint8Array): number | null {
+  let end = 0;
+  while (end < bytes.length && bytes[end] !== 10 && bytes[end] !== 13) end++;
+  let last = end - 1;
+  while (last >= 0 && bytes[last] === 32) last--;
+  const c = last >= 0 ? bytes[last]! : -1;
+  return c === 44 || c === 59 || c === 9 ? c : null;
+}
+
+/** A copy of the bytes without one delimiter (and the spaces after it) right before each line break or the end. */
+function stripTrailingDelimiters(bytes: Uint8Array, delim: number): Uint8Array {
+  const out = new Uint8Array(bytes.length);
+  let o = 0;
+  let pending = -1; // output position of a delimiter that may be trailing
+  for (let i = 0; i < bytes.length; i++) {
+    const c = bytes[i]!;
+    if (c === 10 || c === 13) {
+      if (pending >= 0) o = pending;
+      pending = -1;
+      out[o++] = c;
+      continue;
+    }
+    if (c === delim) pending = o;
+    else if (c !== 32) pending = -1;
+    out[o++] = c;
+  }
+  if (pending >= 0) o = pending;
+  return out.subarray(0, o);
 }

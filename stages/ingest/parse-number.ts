@@ -10,11 +10,13 @@ export interface NumberRule {
   gt?: number;
   integer?: boolean;
   unit?: string;
+  /** Accept a decimal comma (`4,12`): files whose delimiter is `;` or a tab, as locales with a decimal comma write them. */
+  decimalComma?: boolean;
 }
 
 /** Reads a CSV cell as a number, or explains why it is not one (quoting it). */
 export function parseNumberCell(cell: CsvCell, rule: NumberRule, file: string, run: string | undefined): { value: number } | { error: Diagnostic } {
-  const text = cell.text;
+  const text = rule.decimalComma && /^[+-]?\d+,\d+([eE][+-]?\d+)?$/.test(cell.text) ? cell.text.replace(',', '.') : cell.text;
   const where = { file, line: cell.line, column: cell.column, run, stage: 'ingest' as const };
   const unit = rule.unit ? ` ${rule.unit}` : '';
   const range = rule.gt !== undefined ? `a number > ${rule.gt}${unit}` : rule.min !== undefined ? `a number ≥ ${rule.min}${unit}` : `a number${unit}`;

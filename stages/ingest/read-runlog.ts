@@ -70,7 +70,7 @@ export function readRunlog(text: string, file: string): RunlogResult {
     const num = (name: string, rule: Omit<NumberRule, 'column'>, required: boolean, fallback: number): number => {
       const c = cell(row, name);
       if (c === undefined || (c.text === '' && !required)) return fallback;
-      const r = parseNumberCell(c, { column: name, ...rule }, file, runId);
+      const r = parseNumberCell(c, { column: name, decimalComma: table.delimiter !== ',', ...rule }, file, runId);
       if ('error' in r) {
         if (required) errors.push(r.error);
         else diagnostics.push({ ...r.error, severity: 'warning', message: `${r.error.message} (ignored: not needed for a ${kind} run)` });

@@ -64,7 +64,7 @@ export function readScalers(text: string, file: string, runs: ReadonlyMap<string
     const counted = get(row.cells, 'pulser_counted');
     let scaler: LiveScaler | null = null;
     if (live !== undefined && live.text !== '') {
-      const r = parseNumberCell(live, { column: 'live_time_s', gt: 0, unit: 's' }, file, runText);
+      const r = parseNumberCell(live, { column: 'live_time_s', gt: 0, unit: 's', decimalComma: table.delimiter !== ',' }, file, runText);
       if ('error' in r) fail(runText, { ...r.error, rule: 'scalers-bad-value', detector: det });
       else if (Number.isFinite(rec.realTimeS) && r.value > rec.realTimeS * (1 + 1e-6)) {
         fail(runText, { severity: 'error', rule: 'scalers-live-exceeds-real', message: `live_time_s ${live.text} exceeds the run's real_time_s ${rec.realTimeS}`, expected: `≤ ${rec.realTimeS} s`, actual: live.text, ...where, column: live.column });

@@ -57,7 +57,22 @@ export function readCsv(text: string, file: string): { table: CsvTable | null; d
   const diagnostics = tokens.diagnostics;
   if (tokens.fatal) return { table: null, diagnostics };
   const [headerRecord, ...dataRecords] = tokens.records;
-  const header = headerRecord.cells;
+  let header = headerRecord.cells;
+  // Spreadsheets often end every line with a delimiter: a last header cell without a name whose
+  // cells are all empty (or absent) is that trailing delimiter, not a column.
+  const lastIndex = header.length - 1;
+  if (header.length > 1 && header[lastIndex]!.text === '' && dataRecords.every((r) => r.cells.length <= lastIndex || (r.cells.length === header.length && r.cells[lastIndex]!.text === ''))) {
+    header = header.slice(0, lastIndex);
+    for (const r of dataRecords) if (r.cells.length > lastIndex) r.cells = r.cells.slice(0, lastIndex);
+    diagnostics.push({
+      severity: 'info',
+      message: `every line ends with a ${describeDelimiter(delimiter)}; the empty last column is ignored`,
+      file,
+      line: headerRecord.cells[lastIndex]!.line,
+      column: headerRecord.cells[lastIndex]!.column,
+      rule: 'csv-trailing-delimiter',
+    });
+  }
 
   const seen = new Map<string, CsvCell>();
   header.forEach((cell, index) => {
