@@ -48,7 +48,7 @@ async function main(argv: string[]): Promise<number> {
     .description('reduce one run series (a folder with series.yaml, runlog.csv, spectra/, calibrations/) into <out>/<series>/')
     .argument('<series-dir>', 'the run-series folder')
     .requiredOption('-o, --out <out-dir>', 'output folder; results go to <out-dir>/<series>/')
-    .option('-j, --jobs <n>', 'threads that read spectra; 1 = in this thread (default: cores − 1, at least 1)', positiveInt, Math.max(1, availableParallelism() - 1))
+    .option('-j, --jobs <n>', 'threads that read spectra: this one and n − 1 workers (default: the number of cores)', positiveInt, availableParallelism())
     .option('--no-html', 'skip summary.html (tables and manifest only)')
     .option('-q, --quiet', 'log warnings and errors only')
     .addHelpText('after', () => `${EXIT_HELP}\n\n${settingsHelp()}`)
