@@ -188,6 +188,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     counts,
     exit_code: exitCode,
   };
+  phase('audit');
   const rep = await report({
     config,
     rows: ext.rows,

@@ -27,7 +27,7 @@ describe('reduceSeries (in-process, one thread)', () => {
   it('reduces the demo with exit 0 and reports the time of each phase', async () => {
     const r = await reduceSeries({ seriesDir: demo, outDir: join(work, 'out2'), jobs: 1, html: false, commandLine: [] });
     expect(r.exitCode).toBe(0);
-    expect(Object.keys(r.phasesMs)).toEqual(['ingest_calibrate', 'plan', 'measure', 'normalize', 'extract', 'report', 'write']);
+    expect(Object.keys(r.phasesMs)).toEqual(['ingest_calibrate', 'plan', 'measure', 'normalize', 'extract', 'audit', 'report', 'write']);
     // 17 sample runs × 4 detectors × 2 peaks (12C and 16O elastic) in the demo spec
     expect(r.counts.rows).toBe(17 * 4 * 2);
   });
