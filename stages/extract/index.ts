@@ -43,6 +43,8 @@ export function extract(input: ExtractInput): ExtractOutput {
   const rows: CrossSectionRow[] = [];
   const diagnostics: Diagnostic[] = [];
   const resolvedByTarget = new Map(config.targets.map((t) => [t.id, resolveTarget(t)]));
+  // One warning per peak (with its first case), not one per run × detector.
+  const problems = new Map<string, { count: number; first: Diagnostic }>();
   const masses = new Map<string, number>();
   const massOf = (n: string) => masses.get(n) ?? masses.set(n, nuclide(n).massU).get(n)!;
   const strengths = new Map<readonly unknown[], Map<string, number>>();
@@ -79,7 +81,9 @@ export function extract(input: ExtractInput): ExtractOutput {
         const measured = input.measured.get(run.run)?.get(key) ?? null;
         const problem = input.planProblems.get(run.run)?.get(key);
         if (problem !== undefined) {
-          diagnostics.push({ severity: 'warning', rule: 'peak-kinematics', stage: 'extract', run: run.run, detector: det.id, message: `peak "${peak.label}": ${problem}` });
+          const seen = problems.get(peak.label);
+          if (seen) seen.count++;
+          else problems.set(peak.label, { count: 1, first: { severity: 'warning', rule: 'peak-kinematics', stage: 'extract', run: run.run, detector: det.id, message: `peak "${peak.label}": ${problem}` } });
         }
         const own = peak.excitation_keV === 0 && peak.q_value_keV === undefined ? `${peak.target_nuclide} elastic` : peak.label;
         const extraFlags = measured ? interferenceFlags(measured.window, own, strengthOf(resolved, peak.target_nuclide), lines) : [];
@@ -106,6 +110,9 @@ export function extract(input: ExtractInput): ExtractOutput {
         );
       }
     }
+  }
+  for (const { count, first } of problems.values()) {
+    diagnostics.push(count === 1 ? first : { ...first, message: `${first.message}; the same in ${count - 1} more run × detector combination${count === 2 ? '' : 's'} (their rows carry no value and a flag)` });
   }
   return { rows, diagnostics };
 }

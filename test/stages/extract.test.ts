@@ -353,6 +353,17 @@ describe('extract: which rows are made (README, "peaks": a peak gives rows for e
     expect(row.crossSectionLabMbPerSr).toBeNaN();
   });
 
+  it('the same planning problem in several run × detector combinations is one warning per peak, counting the others', () => {
+    const problems = new Map([['r002', new Map([[measuredKey('d01', '12C elastic'), 'kinematically forbidden (test)'], [measuredKey('d02', '12C elastic'), 'kinematically forbidden (test)']])]]);
+    const m = new Map(measured);
+    m.set('r002', new Map());
+    const out = extract(input({ measured: m, planProblems: problems }));
+    expect(out.diagnostics).toHaveLength(1);
+    expect(out.diagnostics[0]).toMatchObject({ rule: 'peak-kinematics', run: 'r002', detector: 'd01' });
+    expect(out.diagnostics[0]!.message).toContain('1 more run × detector combination');
+    expect(out.rows.filter((r) => r.run === 'r002').every((r) => Number.isNaN(r.crossSectionLabMbPerSr))).toBe(true);
+  });
+
   it('natural carbon at 30°: the 13C elastic peak (1.08 % of 12C in n·Z²) lies in the 12C window; pure 12C has no such flag', () => {
     // K(12C, 30°) = 0.9139, K(13C, 30°) = 0.9204 (Chu, Mayer & Nicolet 1978, eq. 2.5): 13 keV apart at 2 MeV
     const forward = (composition: object) =>
