@@ -231,11 +231,13 @@ function auditRows(
     const res = results.get(run.run);
     const reasons = setAside.get(run.run);
     const calVersion = calByRun.get(run.run)?.version ?? '';
-    const runPeaks = res?.ok ? [...peaksByRun.get(run.run)!.values()] : [];
+    const byDetector = new Map<string, MeasuredPeak[]>(dets.map((d) => [d.id, []]));
+    if (res?.ok) for (const p of peaksByRun.get(run.run)!.values()) byDetector.get(p.request.detector)!.push(p);
     dets.forEach((d, di) => {
       const lf = live.get(run.run)?.get(d.id);
-      const peaks = runPeaks.filter((p) => p.request.detector === d.id);
-      const strongest = peaks.filter((p) => p.net !== null).sort((a, b) => b.net!.net - a.net!.net)[0];
+      const peaks = byDetector.get(d.id)!;
+      let strongest: MeasuredPeak | undefined;
+      for (const p of peaks) if (p.net !== null && (strongest === undefined || p.net.net > strongest.net!.net)) strongest = p;
       const first = reasons?.[0];
       const status: QcRow['status'] = reasons ? 'set-aside' : run.kind === 'calibration' || run.kind === 'background' ? 'not-reduced' : 'reduced';
       const where = first ? `${first.file ?? ''}${first.line !== undefined ? `:${first.line}` : ''}${first.column !== undefined ? `:${first.column}` : ''}` : '';
@@ -279,7 +281,7 @@ function auditRows(
           netCounts: p.net?.net ?? Number.NaN,
           netCountsUnc: p.net ? Math.sqrt(p.net.netVariance) : Number.NaN,
           centroidShiftKeV: p.shiftKeV,
-          flags: [...w.flags],
+          flags: w.flags,
         });
       }
     });

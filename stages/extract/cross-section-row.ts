@@ -42,7 +42,9 @@ const NaN_ = Number.NaN;
  */
 export function crossSectionRow(x: RowInput): CrossSectionRow {
   const { config, projectile, run, detector, peak, measured, live, normalization } = x;
-  const flags = [...x.extraFlags, ...(measured?.window.flags ?? []), ...(normalization?.flags ?? [])];
+  const flags = x.extraFlags.slice();
+  if (measured !== null) for (const f of measured.window.flags) flags.push(f);
+  if (normalization !== null) for (const f of normalization.flags) flags.push(f);
   const target = nuclide(peak.target_nuclide);
   const kin = peakKinematics(projectile, peak.target_nuclide, peak.excitation_keV, peak.q_value_keV, run.beamEnergyKeV, detector.angle_deg);
   const k = kin.ok ? kin.value : null;
@@ -130,6 +132,6 @@ export function crossSectionRow(x: RowInput): CrossSectionRow {
     ratioToRutherfordStat: ratioStat,
     ratioToRutherfordSys: ratioSys,
     calibrationVersion: x.calibrationVersion,
-    flags: [...new Set(flags)].sort(),
+    flags: flags.length === 0 ? flags : [...new Set(flags)].sort(),
   };
 }

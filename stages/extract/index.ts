@@ -55,20 +55,31 @@ export function extract(input: ExtractInput): ExtractOutput {
     if (v === undefined) perTarget.set(n, (v = resolved.filter((r) => r.nuclide === n).reduce((s, r) => s + r.atomsPerCm2, 0) * nuclide(n).z ** 2));
     return v;
   };
+  // Per target and detector, once: every nuclide's elastic line as a kinematic factor (its
+  // energy is K·E for each run) and its expected strength.
+  const elasticLines = new Map<string, { nuclides: string[]; areals: ({ atomsPerCm2: number; relUnc: number } | null)[]; perDetector: { name: string; k: number; strength: number }[][] }>();
+  for (const t of config.targets) {
+    const resolved = resolvedByTarget.get(t.id)!;
+    const nuclides = [...new Set(resolved.map((r) => r.nuclide))];
+    elasticLines.set(t.id, {
+      nuclides,
+      areals: config.peaks.map((p) => nuclideAreal(resolved, p.target_nuclide)),
+      perDetector: config.detectors.map((det) =>
+        nuclides.map((n) => {
+          const m2 = massOf(n);
+          return { name: `${n} elastic`, k: m2 > projectile.massU ? elasticKinematicFactor(projectile.massU, m2, det.angle_deg) : Number.NaN, strength: strengthOf(resolved, n) };
+        }),
+      ),
+    });
+  }
   for (const run of input.sampleRuns) {
     const resolved = resolvedByTarget.get(run.target)!;
-    const nuclidesHere = [...new Set(resolved.map((r) => r.nuclide))];
-    const areals = config.peaks.map((p) => nuclideAreal(resolved, p.target_nuclide));
-    for (const det of config.detectors) {
+    const here = elasticLines.get(run.target)!;
+    const nuclidesHere = here.nuclides;
+    const areals = here.areals;
+    for (const [di, det] of config.detectors.entries()) {
       // Every peak this spectrum is expected to hold: each nuclide's elastic peak and the configured peaks.
-      const lines: KnownLine[] = nuclidesHere.map((n) => {
-        const m2 = massOf(n);
-        return {
-          name: `${n} elastic`,
-          energyKeV: m2 > projectile.massU ? elasticKinematicFactor(projectile.massU, m2, det.angle_deg) * run.beamEnergyKeV : Number.NaN,
-          strength: strengthOf(resolved, n),
-        };
-      });
+      const lines: KnownLine[] = here.perDetector[di]!.map((l) => ({ name: l.name, energyKeV: l.k * run.beamEnergyKeV, strength: l.strength }));
       for (const p of config.peaks) {
         if (!nuclidesHere.includes(p.target_nuclide) || (p.excitation_keV === 0 && p.q_value_keV === undefined)) continue;
         const k = peakKinematics(projectile, p.target_nuclide, p.excitation_keV, p.q_value_keV, run.beamEnergyKeV, det.angle_deg);
