@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 import { availableParallelism } from 'node:os';
 import { existsSync, statSync } from 'node:fs';
-import { Command, InvalidArgumentError } from 'commander';
+import { Command, InvalidArgumentError, Option } from 'commander';
 import type { Diagnostic } from '../core/diagnostics/diagnostic.js';
 import { formatDiagnostic } from '../core/diagnostics/format-diagnostic.js';
 import { describeSettings } from '../core/config/setting.js';
@@ -39,7 +39,7 @@ async function main(argv: string[]): Promise<number> {
     .name('xsred')
     .description('Reduce charged-particle scattering run series into absolute differential cross sections.')
     .version(SOFTWARE.version, '-V, --version')
-    .showHelpAfterError()
+    .showHelpAfterError('(add --help for usage, exit codes and settings)')
     .exitOverride()
     .addHelpText('after', EXIT_HELP);
 
@@ -48,7 +48,7 @@ async function main(argv: string[]): Promise<number> {
     .description('reduce one run series (a folder with series.yaml, runlog.csv, spectra/, calibrations/) into <out>/<series>/')
     .argument('<series-dir>', 'the run-series folder')
     .requiredOption('-o, --out <out-dir>', 'output folder; results go to <out-dir>/<series>/')
-    .option('-j, --jobs <n>', 'threads that read spectra: this one and n − 1 workers (default: the number of cores)', positiveInt, availableParallelism())
+    .addOption(new Option('-j, --jobs <n>', 'threads that read spectra: this one and n − 1 workers').argParser(positiveInt).default(availableParallelism(), 'the number of cores'))
     .option('--no-html', 'skip summary.html (tables and manifest only)')
     .option('-q, --quiet', 'log warnings and errors only')
     .addHelpText('after', () => `${EXIT_HELP}\n\n${settingsHelp()}`)
