@@ -4,7 +4,7 @@ import type { LiveFraction } from '../../pipeline/core/counting/live-fraction.js
 import type { MeasuredPeak } from '../../pipeline/core/counting/peak-window.js';
 import { peakKinematics } from '../../pipeline/core/kinematics/peak-kinematics.js';
 import type { AppliedNormalization, CrossSectionRow } from '../../pipeline/core/model/result-rows.js';
-import { nuclideAreal, resolveTarget } from '../../pipeline/core/model/resolve-target.js';
+import { nuclideAreal, nuclideTotals, resolveTarget } from '../../pipeline/core/model/resolve-target.js';
 import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import { nuclide } from '../../pipeline/core/physics/nuclides.js';
 import { elasticKinematicFactor } from '../../pipeline/core/physics/elastic-kinematic-factor.js';
@@ -47,14 +47,10 @@ export function extract(input: ExtractInput): ExtractOutput {
   const problems = new Map<string, { count: number; first: Diagnostic }>();
   const masses = new Map<string, number>();
   const massOf = (n: string) => masses.get(n) ?? masses.set(n, nuclide(n).massU).get(n)!;
-  const strengths = new Map<readonly unknown[], Map<string, number>>();
-  const strengthOf = (resolved: readonly { nuclide: string; atomsPerCm2: number }[], n: string) => {
-    let perTarget = strengths.get(resolved);
-    if (perTarget === undefined) strengths.set(resolved, (perTarget = new Map()));
-    let v = perTarget.get(n);
-    if (v === undefined) perTarget.set(n, (v = resolved.filter((r) => r.nuclide === n).reduce((s, r) => s + r.atomsPerCm2, 0) * nuclide(n).z ** 2));
-    return v;
-  };
+  // Expected strength of a nuclide's elastic line: atoms/cm² × Z² (the Rutherford scaling).
+  const strengthsByTarget = new Map(
+    config.targets.map((t) => [t.id, new Map([...nuclideTotals(resolvedByTarget.get(t.id)!)].map(([n, tot]) => [n, tot.atomsPerCm2 * nuclide(n).z ** 2]))]),
+  );
   // Per target and detector, once: every nuclide's elastic line as a kinematic factor (its
   // energy is K·E for each run) and its expected strength.
   const elasticLines = new Map<string, { nuclides: string[]; areals: ({ atomsPerCm2: number; relUnc: number } | null)[]; perDetector: { name: string; k: number; strength: number }[][] }>();
@@ -67,13 +63,12 @@ export function extract(input: ExtractInput): ExtractOutput {
       perDetector: config.detectors.map((det) =>
         nuclides.map((n) => {
           const m2 = massOf(n);
-          return { name: `${n} elastic`, k: m2 > projectile.massU ? elasticKinematicFactor(projectile.massU, m2, det.angle_deg) : Number.NaN, strength: strengthOf(resolved, n) };
+          return { name: `${n} elastic`, k: m2 > projectile.massU ? elasticKinematicFactor(projectile.massU, m2, det.angle_deg) : Number.NaN, strength: strengthsByTarget.get(t.id)!.get(n)! };
         }),
       ),
     });
   }
   for (const run of input.sampleRuns) {
-    const resolved = resolvedByTarget.get(run.target)!;
     const here = elasticLines.get(run.target)!;
     const nuclidesHere = here.nuclides;
     const areals = here.areals;
@@ -97,7 +92,7 @@ export function extract(input: ExtractInput): ExtractOutput {
           else problems.set(peak.label, { count: 1, first: { severity: 'warning', rule: 'peak-kinematics', stage: 'extract', run: run.run, detector: det.id, message: `peak "${peak.label}": ${problem}` } });
         }
         const own = peak.excitation_keV === 0 && peak.q_value_keV === undefined ? `${peak.target_nuclide} elastic` : peak.label;
-        const extraFlags = measured ? interferenceFlags(measured.window, own, strengthOf(resolved, peak.target_nuclide), lines) : [];
+        const extraFlags = measured ? interferenceFlags(measured.window, own, strengthsByTarget.get(run.target)!.get(peak.target_nuclide)!, lines) : [];
         const live = input.live.get(run.run)?.get(det.id) ?? { value: 1, unc: 0, source: 'none' as const };
         if (live.source === 'none') extraFlags.push('no-live-time');
         const shiftTol = config.extract.shift_tolerance_fwhm * det.resolution_fwhm_keV;

@@ -1,6 +1,6 @@
 import type { SeriesConfig } from '../../pipeline/core/config/series-schema.js';
 import { elementZ, nuclide, type Nuclide } from '../../pipeline/core/physics/nuclides.js';
-import { resolveTarget } from '../../pipeline/core/model/resolve-target.js';
+import { nuclideTotals, resolveTarget } from '../../pipeline/core/model/resolve-target.js';
 
 export interface ReferenceNuclide {
   nuclide: Nuclide;
@@ -26,16 +26,9 @@ export function referenceComposition(config: SeriesConfig): ReferenceComposition
   const resolved = resolveTarget(target);
   const element =
     config.normalization.reference_element ?? [...new Set(resolved.map((r) => r.element))].sort((a, b) => (elementZ(b) ?? 0) - (elementZ(a) ?? 0))[0]!;
-  const rows = resolved.filter((r) => r.element === element);
-  const byNuclide = new Map<string, ReferenceNuclide>();
-  for (const r of rows) {
-    const prev = byNuclide.get(r.nuclide);
-    if (prev) {
-      prev.relUnc = (prev.relUnc * prev.atomsPerCm2 + r.relUnc * r.atomsPerCm2) / (prev.atomsPerCm2 + r.atomsPerCm2);
-      prev.atomsPerCm2 += r.atomsPerCm2;
-    } else byNuclide.set(r.nuclide, { nuclide: nuclide(r.nuclide), atomsPerCm2: r.atomsPerCm2, relUnc: r.relUnc });
-  }
-  const nuclides = [...byNuclide.values()];
+  const nuclides: ReferenceNuclide[] = [...nuclideTotals(resolved)]
+    .filter(([, t]) => t.element === element)
+    .map(([name, t]) => ({ nuclide: nuclide(name), atomsPerCm2: t.atomsPerCm2, relUnc: t.relUnc }));
   const atomsPerCm2 = nuclides.reduce((s, n) => s + n.atomsPerCm2, 0);
   const relUnc = nuclides.reduce((s, n) => s + n.relUnc * n.atomsPerCm2, 0) / atomsPerCm2;
   return { element, nuclides, atomsPerCm2, relUnc };

@@ -36,11 +36,28 @@ export function resolveTarget(target: TargetConfig): ResolvedNuclide[] {
   return out;
 }
 
-/** Atoms per cm² of one nuclide summed over layers, with the relative uncertainty (layers taken as fully correlated: conservative). */
+export interface NuclideTotal {
+  element: string;
+  atomsPerCm2: number;
+  /** Relative uncertainty, layers taken as fully correlated (conservative). */
+  relUnc: number;
+}
+
+/** Every nuclide's atoms per cm² summed over the layers, in order of first appearance (beam side first). */
+export function nuclideTotals(resolved: readonly ResolvedNuclide[]): Map<string, NuclideTotal> {
+  const totals = new Map<string, NuclideTotal & { weightedUnc: number }>();
+  for (const r of resolved) {
+    const t = totals.get(r.nuclide) ?? { element: r.element, atomsPerCm2: 0, relUnc: 0, weightedUnc: 0 };
+    t.atomsPerCm2 += r.atomsPerCm2;
+    t.weightedUnc += r.atomsPerCm2 * r.relUnc;
+    t.relUnc = t.weightedUnc / t.atomsPerCm2;
+    totals.set(r.nuclide, t);
+  }
+  return new Map([...totals].map(([n, { element, atomsPerCm2, relUnc }]) => [n, { element, atomsPerCm2, relUnc }]));
+}
+
+/** Atoms per cm² of one nuclide summed over layers, with its relative uncertainty; null when absent. */
 export function nuclideAreal(resolved: readonly ResolvedNuclide[], nuclideName: string): { atomsPerCm2: number; relUnc: number } | null {
-  const rows = resolved.filter((r) => r.nuclide === nuclideName);
-  if (rows.length === 0) return null;
-  const n = rows.reduce((s, r) => s + r.atomsPerCm2, 0);
-  const u = rows.reduce((s, r) => s + r.atomsPerCm2 * r.relUnc, 0);
-  return { atomsPerCm2: n, relUnc: u / n };
+  const t = nuclideTotals(resolved).get(nuclideName);
+  return t === undefined ? null : { atomsPerCm2: t.atomsPerCm2, relUnc: t.relUnc };
 }
