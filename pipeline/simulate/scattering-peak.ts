@@ -1,7 +1,6 @@
-import {
-  cmVelocityRatio, elasticKinematicFactor, ejectileEnergiesNonRelKeV, labToCmAngleDeg, lecuyerScreeningFactor,
-  rutherfordLabMbPerSr, solidAngleJacobianLabPerCm, type Nuclide,
-} from '../core/physics/index.js';
+import { peakKinematics } from '../core/kinematics/peak-kinematics.js';
+import { screenedRutherfordLab } from '../core/kinematics/screened-rutherford.js';
+import type { Nuclide } from '../core/physics/index.js';
 import { energyCurveValue, type PeakTruth } from './truth-model.js';
 
 export interface ScatteringPeak {
@@ -39,45 +38,28 @@ export function scatteringPeak(
   projectile: Nuclide, target: Nuclide, qValueKeV: number, beamEnergyKeV: number, thetaLabDeg: number,
   truth: PeakTruth | undefined, screening: 'lecuyer' | 'none',
 ): ScatteringPeak | null {
-  const m1 = projectile.massU;
-  const m2 = target.massU;
-  if (!(m2 > m1)) return null;
-  const params = { projectileMassU: m1, targetMassU: m2, ejectileMassU: m1, residualMassU: m2, beamEnergyKeV, qValueKeV };
-  let peakEnergyKeV: number;
-  let gamma: number;
-  if (qValueKeV === 0) {
-    peakEnergyKeV = elasticKinematicFactor(m1, m2, thetaLabDeg) * beamEnergyKeV;
-    gamma = m1 / m2;
-  } else {
-    const energies = ejectileEnergiesNonRelKeV({ ...params, thetaLabDeg });
-    if (energies.length !== 1) return null;
-    try {
-      gamma = cmVelocityRatio(params);
-    } catch {
-      return null;
-    }
-    if (gamma >= 1) return null;
-    peakEnergyKeV = energies[0]!;
-  }
-  const thetaCmDeg = labToCmAngleDeg(thetaLabDeg, gamma);
-  const jacobian = solidAngleJacobianLabPerCm(thetaCmDeg, gamma);
-  const sigmaR = rutherfordLabMbPerSr(projectile.z, target.z, m1, m2, beamEnergyKeV, thetaLabDeg);
-  const screeningFactor = screening === 'lecuyer' ? lecuyerScreeningFactor(projectile.z, target.z, (beamEnergyKeV * m2) / (m1 + m2)) : 1;
+  if (!(target.massU > projectile.massU)) return null;
+  // The same kinematics and Rutherford code the reduction uses (pipeline/core/kinematics).
+  const kin = peakKinematics(projectile, target.name, 0, qValueKeV, beamEnergyKeV, thetaLabDeg);
+  if (!kin.ok || !(kin.value.gamma < 1)) return null;
+  const { energyKeV: peakEnergyKeV, thetaCmDeg, jacobianLabPerCm: jacobian } = kin.value;
+  const r = screenedRutherfordLab(projectile, target, beamEnergyKeV, thetaLabDeg, screening);
+  const sigmaR = r.sigmaMbPerSr / r.screeningFactor;
   let dsigmaLab: number;
   if (truth !== undefined && 'cm_mb_per_sr' in truth) {
     dsigmaLab = energyCurveValue(truth.cm_mb_per_sr, beamEnergyKeV) / jacobian;
   } else {
     const ratio = truth === undefined ? 1 : energyCurveValue(truth.ratio_to_rutherford, beamEnergyKeV);
-    dsigmaLab = ratio * sigmaR * screeningFactor;
+    dsigmaLab = ratio * r.sigmaMbPerSr;
   }
   return {
     peakEnergyKeV,
     thetaCmDeg,
     jacobianLabPerCm: jacobian,
     rutherfordLabMbPerSr: sigmaR,
-    screeningFactor,
+    screeningFactor: r.screeningFactor,
     dsigmaLabMbPerSr: dsigmaLab,
     dsigmaCmMbPerSr: dsigmaLab * jacobian,
-    sigmaOverRutherford: dsigmaLab / (sigmaR * screeningFactor),
+    sigmaOverRutherford: dsigmaLab / r.sigmaMbPerSr,
   };
 }
