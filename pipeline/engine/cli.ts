@@ -79,7 +79,7 @@ async function main(argv: string[]): Promise<number> {
     .argument('<spec>', 'simulation spec (YAML)')
     .requiredOption('-o, --out <out-dir>', 'folder to write <out-dir>/<series>/ into')
     .action(async (spec: string, o: { out: string }) => {
-      const { runSimulateCommand } = await import('../simulate/simulate-command.js');
+      const { runSimulateCommand } = await import('./simulate-command.js');
       exitCode = await runSimulateCommand(spec, o.out);
     });
 

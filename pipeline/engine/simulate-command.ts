@@ -1,10 +1,8 @@
 import { readFileSync } from 'node:fs';
 import { formatDiagnostic } from '../core/diagnostics/format-diagnostic.js';
-import { loadSimulationSpec } from './load-simulation-spec.js';
-import { simulateSeries } from './simulate-series.js';
-
-/** Exit codes, with the meanings of the xsred command's: 0 written, 1 internal error, 2 unusable spec or output folder. */
-export const SIMULATE_EXIT = { ok: 0, internal: 1, usage: 2 } as const;
+import { loadSimulationSpec } from '../simulate/load-simulation-spec.js';
+import { simulateSeries } from '../simulate/simulate-series.js';
+import { EXIT } from './exit-codes.js';
 
 /**
  * `xsred simulate <spec.yaml> --out <dir>`: loads and validates the spec (diagnostics on stderr
@@ -19,22 +17,22 @@ export async function runSimulateCommand(specPath: string, outDir: string): Prom
     text = readFileSync(specPath, 'utf8');
   } catch (e) {
     process.stderr.write(`${formatDiagnostic({ severity: 'error', rule: 'spec-unreadable', stage: 'simulate', file: specPath, message: `cannot read the simulation spec: ${(e as Error).message}` })}\n`);
-    return SIMULATE_EXIT.usage;
+    return EXIT.usage;
   }
   const loaded = loadSimulationSpec(text, specPath);
   for (const d of loaded.diagnostics) process.stderr.write(`${formatDiagnostic(d)}\n`);
-  if (loaded.spec === null) return SIMULATE_EXIT.usage;
+  if (loaded.spec === null) return EXIT.usage;
   try {
     const result = simulateSeries(loaded.spec, outDir);
     for (const d of result.diagnostics) process.stderr.write(`${formatDiagnostic({ ...d, file: specPath })}\n`);
     process.stdout.write(`${result.seriesDir}\n`);
-    return SIMULATE_EXIT.ok;
+    return EXIT.ok;
   } catch (e) {
     const err = e as NodeJS.ErrnoException;
     // File-system errors, an occupied output folder, and physics outside its validity for the
     // spec's values (RangeError, e.g. screening at too low an energy) are the user's to fix.
     const usage = err.code !== undefined || err instanceof RangeError || /not a simulated series/.test(err.message);
     process.stderr.write(`${formatDiagnostic({ severity: 'error', rule: usage ? 'simulate-output' : 'simulate-internal', stage: 'simulate', file: outDir, message: err.message })}\n`);
-    return usage ? SIMULATE_EXIT.usage : SIMULATE_EXIT.internal;
+    return usage ? EXIT.usage : EXIT.internal;
   }
 }

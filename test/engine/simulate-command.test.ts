@@ -3,8 +3,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, afterEach, describe, expect, it, vi } from 'vitest';
 import { stringify } from 'yaml';
-import { runSimulateCommand } from '../../pipeline/simulate/simulate-command.js';
-import { smallSpec } from './small-spec.js';
+import { runSimulateCommand } from '../../pipeline/engine/simulate-command.js';
+import { smallSpec } from '../simulate/small-spec.js';
 
 const root = mkdtempSync(join(tmpdir(), 'xsred-simulate-command-'));
 afterAll(() => rmSync(root, { recursive: true, force: true }));
