@@ -1,4 +1,5 @@
 import type { Diagnostic } from '../core/diagnostics/diagnostic.js';
+import { utf16Encoding } from '../core/formats/lab-file-quirks.js';
 
 const utf8 = new TextDecoder('utf-8', { fatal: true, ignoreBOM: false });
 const latin1 = new TextDecoder('latin1');
@@ -24,11 +25,4 @@ export function decodeText(bytes: Uint8Array, file: string): { text: string; dia
       diagnostics: [{ severity: 'info', rule: 'text-not-utf8', stage: 'ingest', file, message: `${file} is not valid UTF-8; read as Windows-1252`, hint: 'save the file as UTF-8' }],
     };
   }
-}
-
-/** 'utf-16le' / 'utf-16be' when the bytes open with a UTF-16 byte-order mark, else null. */
-export function utf16Encoding(bytes: Uint8Array): 'utf-16le' | 'utf-16be' | null {
-  if (bytes.length >= 2 && bytes[0] === 0xff && bytes[1] === 0xfe) return 'utf-16le';
-  if (bytes.length >= 2 && bytes[0] === 0xfe && bytes[1] === 0xff) return 'utf-16be';
-  return null;
 }

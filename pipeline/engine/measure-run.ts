@@ -5,7 +5,6 @@ import { netCounts } from '../core/counting/net-counts.js';
 import { planPeakWindow, type MeasuredPeak, type PeakRequest, type WindowWidths } from '../core/counting/peak-window.js';
 import { measureWindowSums } from '../core/counting/window-sums.js';
 import { SpectrumScratch } from '../core/formats/spectrum-csv.js';
-import { utf16Encoding } from './decode-text.js';
 // The per-run module only: workers must not load the series-level readers (zod, yaml).
 import { ingestSpectrum } from '../../stages/ingest/ingest-spectrum.js';
 
@@ -48,13 +47,9 @@ const scratch = new SpectrumScratch();
  * windows (placed from kinematics through the run's calibration). Pure apart from the hash;
  * runs in a worker thread or in-process alike.
  */
-export function measureRun(task: MeasureTask, raw: Uint8Array): MeasureResult {
-  const sha256 = createHash('sha256').update(raw).digest('hex');
-  const utf16 = utf16Encoding(raw);
-  // A UTF-16 export (rare, from spreadsheets) is re-encoded; the parser reads ASCII/UTF-8 bytes.
-  const bytes = utf16 === null ? raw : Buffer.from(new TextDecoder(utf16).decode(raw), 'utf8');
+export function measureRun(task: MeasureTask, bytes: Uint8Array): MeasureResult {
+  const sha256 = createHash('sha256').update(bytes).digest('hex');
   const ingested = ingestSpectrum(bytes, task.file, task.run, task.detectorIds, scratch);
-  if (utf16 !== null) ingested.diagnostics.push({ severity: 'info', rule: 'text-utf16', stage: 'ingest', file: task.file, run: task.run, message: `${task.file} is UTF-16; read as such`, hint: 'export spectra as UTF-8 or ASCII CSV' });
   const base = { run: task.run, sha256, diagnostics: ingested.diagnostics };
   if (ingested.spectrum === null) return { ...base, ok: false, channelCount: 0, totals: [], sums: new Float64Array(0) };
   const s = ingested.spectrum;

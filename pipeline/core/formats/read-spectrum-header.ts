@@ -4,6 +4,8 @@ import { detectDelimiter, tokenizeCsv } from './tokenize-csv.js';
 /** What the data-row parser needs from a spectrum file's header line. */
 export interface SpectrumHeader {
   detectorIds: string[];
+  /** 1-based column of each detector id in the header line. */
+  detectorColumns: number[];
   /** Byte value of the delimiter: 44 `,`, 59 `;` or 9 tab. */
   delimiterByte: number;
   /** Byte offset of the first line after the header. */
@@ -132,6 +134,8 @@ export function readSpectrumHeader(bytes: Uint8Array, file: string): { header: S
   return {
     header: {
       detectorIds: cells.slice(1).map((c) => c.text),
+      // the name itself, past an opening quote
+      detectorColumns: cells.slice(1).map((c) => (c.line === line && text[c.column - 1] === '"' ? c.column + 1 : c.column)),
       delimiterByte: delimiter.charCodeAt(0),
       dataOffset: afterBreak(bytes, end),
       dataLine: line + linesInQuotes + 1,

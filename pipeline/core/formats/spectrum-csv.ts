@@ -2,6 +2,7 @@ import type { Diagnostic } from '../diagnostics/diagnostic.js';
 import { readSpectrumHeader } from './read-spectrum-header.js';
 import { charColumn, fieldEnd, fieldText } from './check-spectrum-field.js';
 import { ProblemLog } from './problem-log.js';
+import { lastLineNumber, stripTrailingDelimiters, trailingDelimiter, utf16Encoding } from './lab-file-quirks.js';
 import { readSpectrumRow, type RowContext, type RowCursor } from './read-spectrum-row.js';
 
 /**
@@ -23,6 +24,8 @@ export class SpectrumScratch {
 /** One run's histograms: one Float64Array of counts per detector column, in header order. */
 export interface ParsedSpectrum {
   detectorIds: string[];
+  /** 1-based column of each detector id in the header line (for diagnostics). */
+  detectorColumns: number[];
   channelCount: number;
   /** counts[k][ch] = counts of detector detectorIds[k] in channel ch; each array has length channelCount. */
   counts: Float64Array[];
@@ -154,10 +157,28 @@ function readPlainRows(ctx: RowContext, cursor: RowCursor): void {
  *
  * Any error (at most 10 reported, then a summary) makes `spectrum` null.
  */
-export function parseSpectrumCsv(input: Uint8Array, file: string, scratch?: SpectrumScratch): { spectrum: ParsedSpectrum | null; diagnostics: Diagnostic[] } {
+export function parseSpectrumCsv(raw: Uint8Array, file: string, scratch?: SpectrumScratch): { spectrum: ParsedSpectrum | null; diagnostics: Diagnostic[] } {
+  const quirks: Diagnostic[] = [];
+  const utf16 = utf16Encoding(raw);
+  let input = raw;
+  if (utf16 !== null) {
+    // Rare (spreadsheet "Unicode text"): re-encoded, since the row reader works on UTF-8 bytes.
+    input = new TextEncoder().encode(new TextDecoder(utf16).decode(raw));
+    quirks.push({ severity: 'info', rule: 'text-utf16', file, line: 1, message: `${file} is UTF-16; read as such`, hint: 'export spectra as UTF-8 or ASCII CSV' });
+  }
+  const trailing = trailingDelimiter(input);
+  if (trailing !== null) {
+    input = stripTrailingDelimiters(input, trailing);
+    quirks.push({ severity: 'info', rule: 'spectrum-trailing-delimiter', file, line: 1, message: 'lines end with a delimiter; the empty last field is ignored' });
+  }
+  const result = parseSpectrumBytes(input, file, scratch);
+  return { spectrum: result.spectrum, diagnostics: [...quirks, ...result.diagnostics] };
+}
+
+function parseSpectrumBytes(input: Uint8Array, file: string, scratch?: SpectrumScratch): { spectrum: ParsedSpectrum | null; diagnostics: Diagnostic[] } {
   const head = readSpectrumHeader(input, file);
   if (head.header === null) return { spectrum: null, diagnostics: head.diagnostics };
-  const { detectorIds, delimiterByte: delim, dataOffset, dataLine } = head.header;
+  const { detectorIds, detectorColumns, delimiterByte: delim, dataOffset, dataLine } = head.header;
   const detectorCount = detectorIds.length;
 
   // Every scan below stops at a line break, so a final one keeps all reads in bounds. A plain
@@ -209,7 +230,14 @@ export function parseSpectrumCsv(input: Uint8Array, file: string, scratch?: Spec
       hint: 'writing counts as integers makes the files smaller and faster to read',
     });
   }
-  if (log.errors > 0) return { spectrum: null, diagnostics };
+  if (log.errors > 0) {
+    const last = input[input.length - 1];
+    const cut = diagnostics.find((d) => d.rule === 'spectrum-ragged-row' || d.rule === 'spectrum-empty-field');
+    if (last !== LF && last !== CR && cut?.line !== undefined && cut.line === lastLineNumber(input)) {
+      diagnostics.push({ severity: 'error', rule: 'spectrum-truncated', file, line: cut.line, message: `the file ends inside the row on line ${cut.line}: it looks truncated`, hint: 'was it copied while the acquisition was still writing it? copy it again once the run has ended' });
+    }
+    return { spectrum: null, diagnostics };
+  }
   if (row < counts[0].length) for (let k = 0; k < detectorCount; k++) counts[k] = scratch ? counts[k].subarray(0, row) : counts[k].slice(0, row);
-  return { spectrum: { detectorIds, channelCount: row, counts }, diagnostics };
+  return { spectrum: { detectorIds, detectorColumns, channelCount: row, counts }, diagnostics };
 }

@@ -120,9 +120,16 @@ describe('refusals: rule, line and 1-based column of the offending field', () =>
     expect(where(parse('channel\n0\n'))).toEqual([['spectrum-no-detectors', 1, 8]]);
   });
 
-  it('duplicate detector ids, and an empty id from a trailing delimiter', () => {
+  it('duplicate detector ids, and an empty id between two names', () => {
     expect(where(parse('channel,d01,d02,d01\n0,1,2,3\n'))).toEqual([['spectrum-duplicate-detector', 1, 17]]);
-    expect(where(parse('channel,d01,\n0,1,\n'))).toEqual([['spectrum-empty-detector-id', 1, 13]]);
+    expect(where(parse('channel,,d02\n0,1,2\n'))).toEqual([['spectrum-empty-detector-id', 1, 9]]);
+  });
+
+  it('a delimiter ending every line (spreadsheet export) is not an empty detector column (common practice)', () => {
+    const r = parse('channel,d01,\n0,1,\n1,4,\n');
+    expect(r.spectrum?.detectorIds).toEqual(['d01']);
+    expect(r.spectrum?.counts.map((c) => [...c])).toEqual([[1, 4]]);
+    expect(r.diagnostics.map((d) => [d.severity, d.rule])).toEqual([['info', 'spectrum-trailing-delimiter']]);
   });
 
   it('channels not 0…N−1 in order (spectrum-channel-order)', () => {
