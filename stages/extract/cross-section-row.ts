@@ -2,7 +2,7 @@ import type { DetectorConfig, PeakConfig, SeriesConfig } from '../../pipeline/co
 import type { LiveFraction } from '../../pipeline/core/counting/live-fraction.js';
 import type { MeasuredPeak } from '../../pipeline/core/counting/peak-window.js';
 import { peakKinematics } from '../../pipeline/core/kinematics/peak-kinematics.js';
-import { screenedRutherfordLab } from '../../pipeline/core/kinematics/screened-rutherford.js';
+import { screenedRutherfordLabIfValid } from '../../pipeline/core/kinematics/screened-rutherford.js';
 import type { AppliedNormalization, CrossSectionRow } from '../../pipeline/core/model/result-rows.js';
 import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import { nuclide, type Nuclide } from '../../pipeline/core/physics/nuclides.js';
@@ -55,15 +55,13 @@ export function crossSectionRow(x: RowInput): CrossSectionRow {
   let dLnRDE = 0;
   let dLnRDTheta = 0;
   if (elastic && projectile.massU < target.massU) {
-    try {
-      const r = screenedRutherfordLab(projectile, target, run.beamEnergyKeV, detector.angle_deg, config.normalization.screening);
+    const r = screenedRutherfordLabIfValid(projectile, target, run.beamEnergyKeV, detector.angle_deg, config.normalization.screening);
+    if (r === null) flags.push('rutherford-not-valid');
+    else {
       rutherford = r.sigmaMbPerSr;
       screening = r.screeningFactor;
       dLnRDE = r.dLnSigmaDEnergyPerKeV;
       dLnRDTheta = r.dLnSigmaDThetaPerDeg;
-    } catch (e) {
-      if (!(e instanceof RangeError)) throw e;
-      flags.push('rutherford-not-valid');
     }
   }
   const net = measured?.net ?? null;

@@ -4,7 +4,7 @@ import type { LiveFraction } from '../../pipeline/core/counting/live-fraction.js
 import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import type { Nuclide } from '../../pipeline/core/physics/nuclides.js';
 import { microCoulombToParticles, MB_TO_CM2 } from '../../pipeline/core/physics/units.js';
-import { screenedRutherfordLab } from '../../pipeline/core/kinematics/screened-rutherford.js';
+import { screenedRutherfordLabIfValid } from '../../pipeline/core/kinematics/screened-rutherford.js';
 import type { ReferenceComposition } from './reference-nuclides.js';
 import type { ReferencePoint } from '../../pipeline/core/model/result-rows.js';
 
@@ -22,20 +22,18 @@ export function referencePoint(config: SeriesConfig, projectile: Nuclide, ref: R
   let dE = 0;
   let dTheta = 0;
   const flags = [...peak.window.flags];
-  try {
-    for (const n of ref.nuclides) {
-      const r = screenedRutherfordLab(projectile, n.nuclide, run.beamEnergyKeV, det.angle_deg, config.normalization.screening);
-      const w = n.atomsPerCm2 * r.sigmaMbPerSr;
-      sumNSigma += w;
-      sumNSigmaF += w / r.screeningFactor;
-      dE += w * r.dLnSigmaDEnergyPerKeV;
-      dTheta += w * r.dLnSigmaDThetaPerDeg;
+  for (const n of ref.nuclides) {
+    const r = screenedRutherfordLabIfValid(projectile, n.nuclide, run.beamEnergyKeV, det.angle_deg, config.normalization.screening);
+    if (r === null) {
+      flags.push('rutherford-not-valid');
+      sumNSigma = Number.NaN;
+      break;
     }
-  } catch (e) {
-    // Outside the validity of the Rutherford form or the screening formula (e.g. a beam energy far too low).
-    if (!(e instanceof RangeError)) throw e;
-    flags.push('rutherford-not-valid');
-    sumNSigma = Number.NaN;
+    const w = n.atomsPerCm2 * r.sigmaMbPerSr;
+    sumNSigma += w;
+    sumNSigmaF += w / r.screeningFactor;
+    dE += w * r.dLnSigmaDEnergyPerKeV;
+    dTheta += w * r.dLnSigmaDThetaPerDeg;
   }
   dE /= sumNSigma;
   dTheta /= sumNSigma;
@@ -43,14 +41,14 @@ export function referencePoint(config: SeriesConfig, projectile: Nuclide, ref: R
   const beam = microCoulombToParticles(run.chargeUC, config.beam.charge_state);
   let solidAngleMsr: number | null = null;
   let relCounting = 0;
-  if (!Number.isFinite(sumNSigma)) {
-    /* flagged above: no solid angle */
-  } else if (net === null) flags.push('reference-not-measured');
-  else if (!(net.net > 0)) flags.push('reference-net-not-positive');
-  else {
-    const sr = net.net / (beam * sumNSigma * MB_TO_CM2 * live.value);
-    solidAngleMsr = sr * 1000;
-    relCounting = Math.sqrt(net.netVariance) / net.net;
+  if (Number.isFinite(sumNSigma)) {
+    if (net === null) flags.push('reference-not-measured');
+    else if (!(net.net > 0)) flags.push('reference-net-not-positive');
+    else {
+      const sr = net.net / (beam * sumNSigma * MB_TO_CM2 * live.value);
+      solidAngleMsr = sr * 1000;
+      relCounting = Math.sqrt(net.netVariance) / net.net;
+    }
   }
   return {
     run: run.run,

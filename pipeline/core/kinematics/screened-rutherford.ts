@@ -32,3 +32,17 @@ export function screenedRutherfordLab(projectile: Nuclide, target: Nuclide, beam
     dLnSigmaDThetaPerDeg: d.dLnSigmaDThetaPerDeg,
   };
 }
+
+/**
+ * The same, or null where the Rutherford form or the screening formula is outside its validity
+ * (a RangeError: projectile not lighter than the target, or screening at too low an energy), so
+ * callers flag the value instead of failing the series.
+ */
+export function screenedRutherfordLabIfValid(projectile: Nuclide, target: Nuclide, beamEnergyKeV: number, thetaLabDeg: number, screening: ScreeningModel): ScreenedRutherford | null {
+  try {
+    return screenedRutherfordLab(projectile, target, beamEnergyKeV, thetaLabDeg, screening);
+  } catch (e) {
+    if (e instanceof RangeError) return null;
+    throw e;
+  }
+}

@@ -10,19 +10,9 @@ export function roundToUncertainty(value: number, unc: number): { value: string;
   if (!(unc > 0) || !Number.isFinite(unc)) return { value: value.toPrecision(4), unc: '' };
   const exp = Math.floor(Math.log10(unc));
   const three = Math.round(unc / 10 ** (exp - 2));
-  let digits: number;
-  let place: number;
-  if (three < 355) {
-    digits = 2;
-    place = exp - 1;
-  } else if (three < 950) {
-    digits = 1;
-    place = exp;
-  } else {
-    digits = 2;
-    place = exp;
-  }
-  void digits;
+  // 100–354: two significant digits (place exp − 1); 355–949: one (place exp);
+  // 950–999: rounds up to 1000, i.e. two digits at place exp.
+  const place = three < 355 ? exp - 1 : exp;
   const step = 10 ** place;
   const u = Math.round(unc / step) * step;
   const v = Math.round(value / step) * step;
