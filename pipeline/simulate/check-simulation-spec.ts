@@ -1,5 +1,5 @@
 import type { z } from 'zod';
-import { elementZ, naturalIsotopes, nuclide, parseNuclideName } from '../core/physics/index.js';
+import { checkSeriesReferences } from '../core/config/check-series-references.js';
 import { sampleEnergiesKeV } from './sample-energies.js';
 import { scheduleRuns } from './schedule-runs.js';
 import type { SimulationSpec } from './simulation-spec.js';
@@ -14,57 +14,25 @@ type Path = (string | number)[];
  */
 export function checkSimulationSpec(spec: SimulationSpec, ctx: z.RefinementCtx): void {
   const issue = (path: Path, message: string) => ctx.addIssue({ code: 'custom', path, message });
-  const unique = (ids: string[], path: string, key: string, what: string) => {
-    const seen = new Set<string>();
-    ids.forEach((v, i) => {
-      if (seen.has(v)) issue([path, i, key], `${what} "${v}" is defined twice`);
-      seen.add(v);
-    });
-  };
-  unique(spec.detectors.map((d) => d.id), 'detectors', 'id', 'detector');
-  unique(spec.targets.map((t) => t.id), 'targets', 'id', 'target');
-  unique(spec.peaks.map((p) => p.label), 'peaks', 'label', 'peak label');
-  unique(spec.calibrations.map((c) => c.version), 'calibrations', 'version', 'calibration version');
-
-  const known = (name: string) => {
-    try {
-      nuclide(name);
-      return true;
-    } catch {
-      return false;
-    }
-  };
-  if (!known(spec.beam.projectile)) issue(['beam', 'projectile'], `projectile "${spec.beam.projectile}" is not a nuclide in AME2020 (e.g. 4He, 1H)`);
-  spec.targets.forEach((t, ti) => t.layers.forEach((l, li) => {
-    for (const key of Object.keys(l.composition)) {
-      const path = ['targets', ti, 'layers', li, 'composition', key];
-      if (parseNuclideName(key) !== null) {
-        if (!known(key)) issue(path, `nuclide "${key}" is not in AME2020`);
-      } else if (elementZ(key) === undefined) {
-        issue(path, `"${key}" is neither an element symbol (Au) nor a nuclide (13C)`);
-      } else {
-        try {
-          naturalIsotopes(key);
-        } catch {
-          issue(path, `no natural isotopic composition is tabulated for ${key}; name its nuclides (e.g. 232Th)`);
-        }
-      }
-    }
-  }));
+  // What a series.yaml must satisfy too (ids, nuclides, references): the shared core checks.
+  for (const r of checkSeriesReferences(spec)) if (r.severity === 'error') issue(r.path, r.message);
+  const versions = new Set<string>();
+  spec.calibrations.forEach((c, i) => {
+    if (versions.has(c.version)) issue(['calibrations', i, 'version'], `calibration version "${c.version}" is defined twice`);
+    versions.add(c.version);
+  });
   const states = new Map<string, string>();
   spec.peaks.forEach((p, i) => {
     const state = `${p.target_nuclide} at Q = ${p.q_value_keV ?? -p.excitation_keV} keV`;
     const first = states.get(state);
     if (first !== undefined) issue(['peaks', i, 'label'], `peak "${p.label}" is the same final state as "${first}" (${state}); declare it once`);
     states.set(state, p.label);
-    if (!known(p.target_nuclide)) issue(['peaks', i, 'target_nuclide'], `target_nuclide "${p.target_nuclide}" is not in AME2020`);
     if (p.excitation_keV > 0 && (p.truth === undefined || !('cm_mb_per_sr' in p.truth))) {
       issue(['peaks', i, 'truth'], `inelastic peak "${p.label}" needs truth: { cm_mb_per_sr: { base, resonances } }`);
     }
   });
 
   const targetIds = new Set(spec.targets.map((t) => t.id));
-  if (!targetIds.has(spec.normalization.reference_target)) issue(['normalization', 'reference_target'], `reference_target "${spec.normalization.reference_target}" is not a target id (${[...targetIds].join(', ')})`);
   if (!targetIds.has(spec.schedule.sample_target)) issue(['schedule', 'sample_target'], `sample_target "${spec.schedule.sample_target}" is not a target id (${[...targetIds].join(', ')})`);
   else if (spec.schedule.sample_target === spec.normalization.reference_target) issue(['schedule', 'sample_target'], 'sample_target must differ from the reference target');
   if (spec.dead_time.model === 'uniform' && spec.dead_time.live_fraction_min > spec.dead_time.live_fraction_max) {
