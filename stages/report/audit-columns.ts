@@ -1,10 +1,11 @@
 import type { ColumnSpec } from '../../pipeline/core/tables/arrow-table.js';
+import { detectorColumn, flagsColumn, kindColumn, runColumn } from './common-columns.js';
 import type { QcRow, ReferencePoint, YieldRow } from '../../pipeline/core/model/result-rows.js';
 
 /** normalization.arrow: one row per reference run × detector. */
 export const NORMALIZATION_COLUMNS: readonly ColumnSpec<ReferencePoint & { referenceElement: string; nominalMsr: number }>[] = [
-  { name: 'run', type: 'utf8', description: 'reference run id', value: (r) => r.run },
-  { name: 'detector', type: 'utf8', description: 'detector id', value: (r) => r.detector },
+  runColumn(),
+  detectorColumn(),
   { name: 'beam_energy_keV', type: 'float64', unit: 'keV', description: 'beam energy of the reference run', value: (r) => r.beamEnergyKeV },
   { name: 'reference_element', type: 'utf8', description: 'element whose elastic peak normalizes', value: (r) => r.referenceElement },
   { name: 'net_counts', type: 'float64', unit: 'counts', description: 'net counts of the reference peak', value: (r) => r.netCounts },
@@ -18,14 +19,14 @@ export const NORMALIZATION_COLUMNS: readonly ColumnSpec<ReferencePoint & { refer
   { name: 'effective_solid_angle_run_unc_msr', type: 'float64', unit: 'msr', description: 'uncertainty independent between reference runs (counting, live time, beam energy)', value: (r) => (r.solidAngleMsr === null ? null : r.solidAngleMsr * Math.hypot(r.relCounting, r.relLive, r.relEnergy)) },
   { name: 'effective_solid_angle_common_rel_unc', type: 'float64', unit: '1', description: 'relative uncertainty shared by all reference runs (reference areal density)', value: (r) => r.relAreal },
   { name: 'nominal_solid_angle_msr', type: 'float64', unit: 'msr', description: 'nominal solid angle from series.yaml', value: (r) => r.nominalMsr },
-  { name: 'flags', type: 'utf8', description: 'anomalies joined by ";"', value: (r) => [...r.flags].sort().join(';') },
+  flagsColumn(),
 ];
 
 /** yields.arrow: one row per measured peak window. */
 export const YIELD_COLUMNS: readonly ColumnSpec<YieldRow>[] = [
-  { name: 'run', type: 'utf8', description: 'run id', value: (r) => r.run },
-  { name: 'kind', type: 'utf8', description: 'run kind', value: (r) => r.kind },
-  { name: 'detector', type: 'utf8', description: 'detector id', value: (r) => r.detector },
+  runColumn(),
+  kindColumn(),
+  detectorColumn(),
   { name: 'peak', type: 'utf8', description: 'peak label, or "reference <element>"', value: (r) => r.peak },
   { name: 'expected_energy_keV', type: 'float64', unit: 'keV', description: 'expected peak energy from kinematics', value: (r) => r.expectedEnergyKeV },
   { name: 'expected_channel', type: 'float64', unit: 'channel', description: 'expected peak position through the calibration', value: (r) => r.expectedChannel },
@@ -43,14 +44,14 @@ export const YIELD_COLUMNS: readonly ColumnSpec<YieldRow>[] = [
   { name: 'net_counts', type: 'float64', unit: 'counts', description: 'net counts', value: (r) => r.netCounts },
   { name: 'net_counts_unc', type: 'float64', unit: 'counts', description: 'uncertainty of the net counts', value: (r) => r.netCountsUnc },
   { name: 'centroid_shift_keV', type: 'float64', unit: 'keV', description: 'net-count centroid minus expected energy (gain-drift indicator)', value: (r) => r.centroidShiftKeV },
-  { name: 'flags', type: 'utf8', description: 'window anomalies joined by ";"', value: (r) => r.flags.join(';') },
+  flagsColumn(),
 ];
 
 /** qc.arrow: one row per run × detector, with the reason for every run set aside. */
 export const QC_COLUMNS: readonly ColumnSpec<QcRow>[] = [
-  { name: 'run', type: 'utf8', description: 'run id', value: (r) => r.run },
-  { name: 'kind', type: 'utf8', description: 'run kind', value: (r) => r.kind },
-  { name: 'detector', type: 'utf8', description: 'detector id', value: (r) => r.detector },
+  runColumn(),
+  kindColumn(),
+  detectorColumn(),
   { name: 'status', type: 'utf8', description: 'reduced | set-aside | not-reduced (calibration and background runs)', value: (r) => r.status },
   { name: 'reason', type: 'utf8', description: 'why the run was set aside or not reduced (first diagnostic, with its file position)', value: (r) => r.reason },
   { name: 'rule', type: 'utf8', description: 'rule id of that diagnostic', value: (r) => r.rule },
@@ -61,5 +62,5 @@ export const QC_COLUMNS: readonly ColumnSpec<QcRow>[] = [
   { name: 'total_counts', type: 'float64', unit: 'counts', description: 'all counts in the detector spectrum', value: (r) => r.totalCounts },
   { name: 'channel_count', type: 'int32', unit: 'channel', description: 'number of channels', value: (r) => r.channelCount },
   { name: 'peak_shift_keV', type: 'float64', unit: 'keV', description: 'centroid shift of the strongest measured peak from its expected energy', value: (r) => r.peakShiftKeV },
-  { name: 'flags', type: 'utf8', description: 'anomalies joined by ";"', value: (r) => r.flags.join(';') },
+  flagsColumn(),
 ];

@@ -1,12 +1,13 @@
 import type { ColumnSpec } from '../../pipeline/core/tables/arrow-table.js';
+import { detectorColumn, flagsColumn, runColumn } from './common-columns.js';
 import type { CrossSectionRow } from '../../pipeline/core/model/result-rows.js';
 
 type C = ColumnSpec<CrossSectionRow>;
 
 /** cross_sections.arrow: one row per sample run × detector × peak (the names are a contract). */
 export const CROSS_SECTION_COLUMNS: readonly C[] = [
-  { name: 'run', type: 'utf8', description: 'run id from runlog.csv', value: (r) => r.run },
-  { name: 'detector', type: 'utf8', description: 'detector id from series.yaml', value: (r) => r.detector },
+  runColumn(),
+  detectorColumn(),
   { name: 'peak', type: 'utf8', description: 'peak label from series.yaml', value: (r) => r.peak },
   { name: 'target', type: 'utf8', description: 'target id of the run', value: (r) => r.target },
   { name: 'target_nuclide', type: 'utf8', description: 'nuclide the peak comes from', value: (r) => r.targetNuclide },
@@ -41,5 +42,5 @@ export const CROSS_SECTION_COLUMNS: readonly C[] = [
   { name: 'ratio_to_rutherford_stat', type: 'float64', unit: '1', description: 'statistical standard uncertainty of σ/σ_R', value: (r) => r.ratioToRutherfordStat },
   { name: 'ratio_to_rutherford_sys', type: 'float64', unit: '1', description: 'systematic standard uncertainty of σ/σ_R (adds the beam energy through ∂lnσ_R/∂E)', value: (r) => r.ratioToRutherfordSys },
   { name: 'calibration_version', type: 'utf8', description: 'energy-calibration version used for this run', value: (r) => r.calibrationVersion },
-  { name: 'flags', type: 'utf8', description: 'anomalies, sorted and joined by ";" (README, "Flags"); empty when none', value: (r) => r.flags.join(';') },
+  flagsColumn(),
 ];
