@@ -1,4 +1,3 @@
-import { createHash } from 'node:crypto';
 import { join, resolve } from 'node:path';
 import type { Diagnostic } from '../core/diagnostics/diagnostic.js';
 import { energyUncertaintyKeV, type EnergyCalibration } from '../core/calibration/energy-calibration.js';
@@ -7,20 +6,18 @@ import type { MeasuredPeak, PeakRequest } from '../core/counting/peak-window.js'
 import type { QcRow, YieldRow } from '../core/model/result-rows.js';
 import { resolveTarget } from '../core/model/resolve-target.js';
 import type { IngestedSeries, RunRecord } from '../core/model/series-model.js';
-import { ABUNDANCE_EDITION, MASS_TABLE_EDITION, nuclide } from '../core/physics/nuclides.js';
-import { CODATA2018 } from '../core/physics/codata2018.js';
+import { nuclide } from '../core/physics/nuclides.js';
 import { ingest } from '../../stages/ingest/index.js';
 import { calibrate } from '../../stages/calibrate/index.js';
 import { normalize, planReferenceWindow, referenceComposition } from '../../stages/normalize/index.js';
 import { extract, measuredKey, planPeakWindows } from '../../stages/extract/index.js';
 import { report } from '../../stages/report/index.js';
 import { writeFileAtomic } from './atomic-write.js';
+import { buildManifest } from './build-manifest.js';
 import { EXIT } from './exit-codes.js';
 import { measuredPeaks, type MeasureResult, type MeasureTask } from './measure-run.js';
 import { readSeriesFiles } from './read-series-files.js';
 import { runMeasurements } from './run-measurements.js';
-import { canonicalJson } from './canonical-json.js';
-import { SOFTWARE } from './software.js';
 
 export interface ReduceOptions {
   seriesDir: string;
@@ -157,12 +154,6 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   const runIndex = new Map(series.runs.map((r) => [r.run, r.index]));
   diagnostics.sort(byRunOrder(runIndex));
 
-  // Provenance.
-  const spectrumHashes = [...results.values()].filter((r) => r.sha256 !== '').map((r) => [series.spectrumFiles.get(r.run)!, r.sha256] as const);
-  const inputHashes = Object.fromEntries([...files.hashes, ...spectrumHashes].sort(([a], [b]) => a.localeCompare(b)));
-  const inputsSha = createHash('sha256').update(Object.entries(inputHashes).map(([f, h]) => `${h}  ${f}\n`).join('')).digest('hex');
-  const configSha = createHash('sha256').update(canonicalJson(config)).digest('hex');
-  const calibrationVersions = [...new Set([...cal.byRun.values()].map((c) => c.version))].sort();
   const counts = {
     runs: series.runs.length,
     reduced: referenceRuns.length + sampleRuns.length,
@@ -172,22 +163,17 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   };
   const exitCode = setAside.size > 0 ? EXIT.someSetAside : EXIT.ok;
   const outSeriesDir = join(resolve(opts.outDir), config.series);
-  const manifest = {
-    software: SOFTWARE,
-    series: config.series,
-    series_dir: seriesDir,
-    command_line: opts.commandLine,
-    started_at: startedAt.toISOString(),
-    finished_at: '',
-    node: process.version,
-    config_sha256: configSha,
-    inputs_sha256: inputsSha,
-    input_files: inputHashes,
-    calibration_versions: calibrationVersions,
-    editions: { constants: CODATA2018.edition, masses: MASS_TABLE_EDITION, abundances: ABUNDANCE_EDITION, screening: config.normalization.screening },
+  const manifest = buildManifest({
+    config,
+    seriesDir,
+    commandLine: opts.commandLine,
+    startedAt,
+    metadataHashes: files.hashes,
+    spectrumHashes: [...results.values()].filter((r) => r.sha256 !== '').map((r) => [series.spectrumFiles.get(r.run)!, r.sha256] as const),
+    calibrationVersions: [...new Set([...cal.byRun.values()].map((c) => c.version))].sort(),
     counts,
-    exit_code: exitCode,
-  };
+    exitCode,
+  });
   phase('audit');
   const rep = await report({
     config,
@@ -198,12 +184,11 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     yields,
     qc,
     diagnostics,
-    manifest: { ...manifest, finished_at: new Date().toISOString() },
+    manifest,
     html: opts.html,
   });
   phase('report');
   for (const f of rep.files) writeFileAtomic(join(outSeriesDir, f.name), f.bytes);
-  writeFileAtomic(join(outSeriesDir, 'diagnostics.json'), new TextEncoder().encode(`${JSON.stringify(diagnostics, null, 1)}\n`));
   phase('write');
   return {
     exitCode,

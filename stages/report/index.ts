@@ -37,7 +37,7 @@ export interface OutputFile {
 }
 
 /**
- * report: the Arrow tables, manifest.json and the HTML summary, as bytes. The engine writes
+ * report: the Arrow tables, manifest.json, diagnostics.json and the HTML summary, as bytes. The engine writes
  * them (atomically). Tables hold no clock time, so the same inputs give identical bytes.
  */
 export async function report(input: ReportInput): Promise<{ files: OutputFile[] }> {
@@ -84,6 +84,7 @@ export async function report(input: ReportInput): Promise<{ files: OutputFile[] 
     });
     files.push({ name: 'summary.html', bytes: new TextEncoder().encode(html) });
   }
+  files.push({ name: 'diagnostics.json', bytes: new TextEncoder().encode(`${JSON.stringify(input.diagnostics, null, 1)}\n`) });
   files.push({ name: 'manifest.json', bytes: new TextEncoder().encode(`${JSON.stringify(input.manifest, null, 2)}\n`) });
   return { files };
 }

@@ -104,9 +104,10 @@ const table = (bytes: Uint8Array | undefined) => arrow.tableFromIPC(bytes!);
 const ARROW_FILES = ['cross_sections.arrow', 'normalization.arrow', 'yields.arrow', 'qc.arrow'];
 
 describe('report: Arrow tables (README, "Outputs")', () => {
-  it('writes the four tables and the manifest, and no summary with html: false', async () => {
+  it('writes the four tables, the diagnostics and the manifest, and no summary with html: false', async () => {
     const out = await files(input());
-    expect([...out.keys()].sort()).toEqual([...ARROW_FILES, 'manifest.json'].sort());
+    expect([...out.keys()].sort()).toEqual([...ARROW_FILES, 'diagnostics.json', 'manifest.json'].sort());
+    expect(JSON.parse(new TextDecoder().decode(out.get('diagnostics.json')!))).toEqual(input().diagnostics);
     const manifest = JSON.parse(new TextDecoder().decode(out.get('manifest.json')!));
     expect(manifest.software.version).toBe('0.0.0-test');
   });
