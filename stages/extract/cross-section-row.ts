@@ -1,7 +1,7 @@
 import type { DetectorConfig, PeakConfig, SeriesConfig } from '../../pipeline/core/config/series-schema.js';
 import type { LiveFraction } from '../../pipeline/core/counting/live-fraction.js';
 import type { MeasuredPeak } from '../../pipeline/core/counting/peak-window.js';
-import { peakKinematics } from '../../pipeline/core/kinematics/peak-kinematics.js';
+import { isElasticPeak, peakKinematics } from '../../pipeline/core/kinematics/peak-kinematics.js';
 import { screenedRutherfordLabIfValid } from '../../pipeline/core/kinematics/screened-rutherford.js';
 import type { AppliedNormalization, CrossSectionRow } from '../../pipeline/core/model/result-rows.js';
 import type { RunRecord } from '../../pipeline/core/model/series-model.js';
@@ -49,7 +49,7 @@ export function crossSectionRow(x: RowInput): CrossSectionRow {
   const kin = peakKinematics(projectile, peak.target_nuclide, peak.excitation_keV, peak.q_value_keV, run.beamEnergyKeV, detector.angle_deg);
   const k = kin.ok ? kin.value : null;
   if (!kin.ok) flags.push('kinematically-forbidden');
-  const elastic = peak.excitation_keV === 0 && (peak.q_value_keV === undefined || peak.q_value_keV === 0);
+  const elastic = isElasticPeak(peak);
   let rutherford = NaN_;
   let screening = NaN_;
   let dLnRDE = 0;

@@ -2,9 +2,9 @@ import type { Diagnostic } from '../../pipeline/core/diagnostics/diagnostic.js';
 import type { SeriesConfig } from '../../pipeline/core/config/series-schema.js';
 import type { LiveFraction } from '../../pipeline/core/counting/live-fraction.js';
 import type { MeasuredPeak } from '../../pipeline/core/counting/peak-window.js';
-import { peakKinematics } from '../../pipeline/core/kinematics/peak-kinematics.js';
+import { isElasticPeak, peakKinematics } from '../../pipeline/core/kinematics/peak-kinematics.js';
 import type { AppliedNormalization, CrossSectionRow } from '../../pipeline/core/model/result-rows.js';
-import { nuclideAreal, nuclideTotals, resolveTarget } from '../../pipeline/core/model/resolve-target.js';
+import { nuclideTotals, resolveTarget } from '../../pipeline/core/model/resolve-target.js';
 import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import { nuclide } from '../../pipeline/core/physics/nuclides.js';
 import { elasticKinematicFactor } from '../../pipeline/core/physics/elastic-kinematic-factor.js';
@@ -42,41 +42,40 @@ export function extract(input: ExtractInput): ExtractOutput {
   const projectile = nuclide(config.beam.projectile);
   const rows: CrossSectionRow[] = [];
   const diagnostics: Diagnostic[] = [];
-  const resolvedByTarget = new Map(config.targets.map((t) => [t.id, resolveTarget(t)]));
   // One warning per peak (with its first case), not one per run × detector.
   const problems = new Map<string, { count: number; first: Diagnostic }>();
-  const masses = new Map<string, number>();
-  const massOf = (n: string) => masses.get(n) ?? masses.set(n, nuclide(n).massU).get(n)!;
-  // Expected strength of a nuclide's elastic line: atoms/cm² × Z² (the Rutherford scaling).
-  const strengthsByTarget = new Map(
-    config.targets.map((t) => [t.id, new Map([...nuclideTotals(resolvedByTarget.get(t.id)!)].map(([n, tot]) => [n, tot.atomsPerCm2 * nuclide(n).z ** 2]))]),
-  );
   // Per target and detector, once: every nuclide's elastic line as a kinematic factor (its
-  // energy is K·E for each run) and its expected strength.
-  const elasticLines = new Map<string, { nuclides: string[]; areals: ({ atomsPerCm2: number; relUnc: number } | null)[]; perDetector: { name: string; k: number; strength: number }[][] }>();
-  for (const t of config.targets) {
-    const resolved = resolvedByTarget.get(t.id)!;
-    const nuclides = [...new Set(resolved.map((r) => r.nuclide))];
-    elasticLines.set(t.id, {
-      nuclides,
-      areals: config.peaks.map((p) => nuclideAreal(resolved, p.target_nuclide)),
-      perDetector: config.detectors.map((det) =>
-        nuclides.map((n) => {
-          const m2 = massOf(n);
-          return { name: `${n} elastic`, k: m2 > projectile.massU ? elasticKinematicFactor(projectile.massU, m2, det.angle_deg) : Number.NaN, strength: strengthsByTarget.get(t.id)!.get(n)! };
-        }),
-      ),
-    });
-  }
+  // energy is K·E for each run) and its expected strength, atoms/cm² × Z² (the Rutherford scaling).
+  const perTarget = new Map(
+    config.targets.map((t) => {
+      const totals = nuclideTotals(resolveTarget(t));
+      const strength = new Map([...totals].map(([n, tot]) => [n, tot.atomsPerCm2 * nuclide(n).z ** 2]));
+      const nuclides = [...totals.keys()];
+      return [
+        t.id,
+        {
+          nuclides,
+          strength,
+          areals: config.peaks.map((p) => totals.get(p.target_nuclide) ?? null),
+          linesByDetector: config.detectors.map((det) =>
+            nuclides.map((n) => {
+              const m2 = nuclide(n).massU;
+              return { name: `${n} elastic`, k: m2 > projectile.massU ? elasticKinematicFactor(projectile.massU, m2, det.angle_deg) : Number.NaN, strength: strength.get(n)! };
+            }),
+          ),
+        },
+      ] as const;
+    }),
+  );
   for (const run of input.sampleRuns) {
-    const here = elasticLines.get(run.target)!;
+    const here = perTarget.get(run.target)!;
     const nuclidesHere = here.nuclides;
     const areals = here.areals;
     for (const [di, det] of config.detectors.entries()) {
       // Every peak this spectrum is expected to hold: each nuclide's elastic peak and the configured peaks.
-      const lines: KnownLine[] = here.perDetector[di]!.map((l) => ({ name: l.name, energyKeV: l.k * run.beamEnergyKeV, strength: l.strength }));
+      const lines: KnownLine[] = here.linesByDetector[di]!.map((l) => ({ name: l.name, energyKeV: l.k * run.beamEnergyKeV, strength: l.strength }));
       for (const p of config.peaks) {
-        if (!nuclidesHere.includes(p.target_nuclide) || (p.excitation_keV === 0 && p.q_value_keV === undefined)) continue;
+        if (!nuclidesHere.includes(p.target_nuclide) || isElasticPeak(p)) continue;
         const k = peakKinematics(projectile, p.target_nuclide, p.excitation_keV, p.q_value_keV, run.beamEnergyKeV, det.angle_deg);
         lines.push({ name: p.label, energyKeV: k.ok ? k.value.energyKeV : Number.NaN, strength: Number.POSITIVE_INFINITY });
       }
@@ -91,8 +90,8 @@ export function extract(input: ExtractInput): ExtractOutput {
           if (seen) seen.count++;
           else problems.set(peak.label, { count: 1, first: { severity: 'warning', rule: 'peak-kinematics', stage: 'extract', run: run.run, detector: det.id, message: `peak "${peak.label}": ${problem}` } });
         }
-        const own = peak.excitation_keV === 0 && peak.q_value_keV === undefined ? `${peak.target_nuclide} elastic` : peak.label;
-        const extraFlags = measured ? interferenceFlags(measured.window, own, strengthsByTarget.get(run.target)!.get(peak.target_nuclide)!, lines) : [];
+        const own = isElasticPeak(peak) ? `${peak.target_nuclide} elastic` : peak.label;
+        const extraFlags = measured ? interferenceFlags(measured.window, own, here.strength.get(peak.target_nuclide)!, lines) : [];
         const live = input.live.get(run.run)?.get(det.id) ?? { value: 1, unc: 0, source: 'none' as const };
         if (live.source === 'none') extraFlags.push('no-live-time');
         const shiftTol = config.extract.shift_tolerance_fwhm * det.resolution_fwhm_keV;

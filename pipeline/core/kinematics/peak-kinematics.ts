@@ -51,3 +51,8 @@ export function peakKinematics(projectile: Nuclide, targetNuclide: string, excit
   }
   return { ok: true, value: { energyKeV: energies[0]!, qValueKeV: q, thetaCmDeg, jacobianLabPerCm: solidAngleJacobianLabPerCm(thetaCmDeg, gamma), gamma } };
 }
+
+/** An elastic-scattering peak: no excitation and no Q-value other than 0. */
+export function isElasticPeak(peak: { excitation_keV: number; q_value_keV?: number }): boolean {
+  return peak.excitation_keV === 0 && (peak.q_value_keV === undefined || peak.q_value_keV === 0);
+}

@@ -55,9 +55,3 @@ export function nuclideTotals(resolved: readonly ResolvedNuclide[]): Map<string,
   }
   return new Map([...totals].map(([n, { element, atomsPerCm2, relUnc }]) => [n, { element, atomsPerCm2, relUnc }]));
 }
-
-/** Atoms per cm² of one nuclide summed over layers, with its relative uncertainty; null when absent. */
-export function nuclideAreal(resolved: readonly ResolvedNuclide[], nuclideName: string): { atomsPerCm2: number; relUnc: number } | null {
-  const t = nuclideTotals(resolved).get(nuclideName);
-  return t === undefined ? null : { atomsPerCm2: t.atomsPerCm2, relUnc: t.relUnc };
-}
