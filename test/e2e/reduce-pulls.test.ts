@@ -90,29 +90,20 @@ describe('xsred reduce on a simulated series with well-separated peaks (truth: t
     expect(far.map((r) => `${r.run} ${r.detector}`)).toEqual([]);
   });
 
-  it('recovers dσ/dΩ lab (truth.csv dsigma_domega_lab_mb_per_sr): pull mean within ±0.2, sd 0.8–1.25 (foundation issue criterion)', () => {
-    const s = pullStatistics(pulls.lab);
-    expect(s.n).toBe(truth.size);
-    expect(Math.abs(s.mean), `mean pull ${s.mean.toFixed(3)} (n = ${s.n})`).toBeLessThanOrEqual(0.2);
-    expect(s.sd, `pull sd ${s.sd.toFixed(3)}`).toBeGreaterThanOrEqual(0.8);
-    expect(s.sd, `pull sd ${s.sd.toFixed(3)}`).toBeLessThanOrEqual(1.25);
-  });
-
-  it('recovers dσ/dΩ CM (truth.csv dsigma_domega_cm_mb_per_sr): pull mean within ±0.2, sd 0.8–1.25 (foundation issue criterion)', () => {
-    const s = pullStatistics(pulls.cm);
-    expect(s.n).toBe(truth.size);
-    expect(Math.abs(s.mean), `mean pull ${s.mean.toFixed(3)} (n = ${s.n})`).toBeLessThanOrEqual(0.2);
-    expect(s.sd, `pull sd ${s.sd.toFixed(3)}`).toBeGreaterThanOrEqual(0.8);
-    expect(s.sd, `pull sd ${s.sd.toFixed(3)}`).toBeLessThanOrEqual(1.25);
-  });
-
-  it('recovers σ/σ_R (truth.csv sigma_over_rutherford): pull mean within ±0.2, sd 0.8–1.25 (foundation issue criterion)', () => {
-    const s = pullStatistics(pulls.ratio);
-    expect(s.n).toBe(truth.size);
-    expect(Math.abs(s.mean), `mean pull ${s.mean.toFixed(3)} (n = ${s.n})`).toBeLessThanOrEqual(0.2);
-    expect(s.sd, `pull sd ${s.sd.toFixed(3)}`).toBeGreaterThanOrEqual(0.8);
-    expect(s.sd, `pull sd ${s.sd.toFixed(3)}`).toBeLessThanOrEqual(1.25);
-  });
+  const quantities = [
+    ['dσ/dΩ lab', 'dsigma_domega_lab_mb_per_sr', 'lab'],
+    ['dσ/dΩ CM', 'dsigma_domega_cm_mb_per_sr', 'cm'],
+    ['σ/σ_R', 'sigma_over_rutherford', 'ratio'],
+  ] as const;
+  for (const [what, column, key] of quantities) {
+    it(`recovers ${what} (truth.csv ${column}): pull mean within ±0.2, sd 0.8–1.25 (foundation issue criterion)`, () => {
+      const s = pullStatistics(pulls[key]);
+      expect(s.n).toBe(truth.size);
+      expect(Math.abs(s.mean), `mean pull ${s.mean.toFixed(3)} (n = ${s.n})`).toBeLessThanOrEqual(0.2);
+      expect(s.sd, `pull sd ${s.sd.toFixed(3)}`).toBeGreaterThanOrEqual(0.8);
+      expect(s.sd, `pull sd ${s.sd.toFixed(3)}`).toBeLessThanOrEqual(1.25);
+    });
+  }
 
   it('finds each detector\'s effective solid angle = true ΔΩ / charge_reading_factor within 3 standard uncertainties (weighted mean of the reference runs; simulator truth)', () => {
     // The runlog charge is the true charge × charge_reading_factor, so N_beam is overstated by that
