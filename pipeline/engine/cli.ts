@@ -4,8 +4,6 @@ import { existsSync, statSync } from 'node:fs';
 import { Command, InvalidArgumentError, Option } from 'commander';
 import type { Diagnostic } from '../core/diagnostics/diagnostic.js';
 import { formatDiagnostic } from '../core/diagnostics/format-diagnostic.js';
-import { describeSettings } from '../core/config/setting.js';
-import { extractSettingsSchema, normalizationSchema } from '../core/config/series-schema.js';
 import { EXIT } from './exit-codes.js';
 import { createLogger } from './logger.js';
 import { SOFTWARE } from './software.js';
@@ -24,7 +22,8 @@ function positiveInt(v: string): number {
 }
 
 /** The tunable settings, from the same zod definitions the validator uses. */
-function settingsHelp(): string {
+async function settingsHelp(): Promise<string> {
+  const [{ describeSettings }, { extractSettingsSchema, normalizationSchema }] = await Promise.all([import('../core/config/setting.js'), import('../core/config/series-schema.js')]);
   const rows = [...describeSettings('normalization', normalizationSchema), ...describeSettings('extract', extractSettingsSchema)].filter((r) => r.default !== '');
   const width = Math.max(...rows.map((r) => r.key.length));
   return `Settings (keys in series.yaml; defaults in configs/defaults.json):\n${rows.map((r) => `  ${r.key.padEnd(width)}  ${r.description} [default ${r.default}${r.unit ? ` ${r.unit}` : ''}]`).join('\n')}`;
@@ -33,6 +32,8 @@ function settingsHelp(): string {
 const levelFor = (d: Diagnostic) => (d.severity === 'error' ? 'error' : d.severity === 'warning' ? 'warn' : 'info');
 
 async function main(argv: string[]): Promise<number> {
+  // The settings table needs the schemas (zod): loaded only when help is asked for.
+  const settings = argv.some((a) => a === '--help' || a === '-h' || a === 'help') ? await settingsHelp() : '';
   const program = new Command();
   let exitCode: number = EXIT.ok;
   program
@@ -51,7 +52,7 @@ async function main(argv: string[]): Promise<number> {
     .addOption(new Option('-j, --jobs <n>', 'threads that read spectra: this one and n − 1 workers').argParser(positiveInt).default(availableParallelism(), 'the number of cores'))
     .option('--no-html', 'skip summary.html (tables and manifest only)')
     .option('-q, --quiet', 'log warnings and errors only')
-    .addHelpText('after', () => `${EXIT_HELP}\n\n${settingsHelp()}`)
+    .addHelpText('after', () => `${EXIT_HELP}\n\n${settings}`)
     .action(async (seriesDir: string, o: { out: string; jobs: number; html: boolean; quiet?: boolean }) => {
       const log = await createLogger(o.quiet ? 'warn' : 'info');
       if (!existsSync(seriesDir) || !statSync(seriesDir).isDirectory()) {
