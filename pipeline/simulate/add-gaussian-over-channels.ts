@@ -1,4 +1,4 @@
-import { normalUpperTail } from './math/normal-cdf.js';
+import { normalUpperTail } from '../core/math/normal-cdf.js';
 
 /** FWHM = 2 √(2 ln 2) σ for a Gaussian (common practice). */
 export const FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);

@@ -1,8 +1,8 @@
 import { microCoulombToParticles, MB_TO_CM2 } from '../core/physics/index.js';
 import { addGaussianOverChannels } from './add-gaussian-over-channels.js';
-import { sampleBinomial } from './random/sample-binomial.js';
-import { samplePoisson } from './random/sample-poisson.js';
-import { Xoshiro128StarStar } from './random/xoshiro128-star-star.js';
+import { sampleBinomial } from '../core/random/sample-binomial.js';
+import { samplePoisson } from '../core/random/sample-poisson.js';
+import { Xoshiro128StarStar } from '../core/random/xoshiro128-star-star.js';
 import type { PlannedRun } from './schedule-runs.js';
 import { scatteringPeak } from './scattering-peak.js';
 import type { SimulationContext } from './simulation-context.js';

@@ -8,7 +8,7 @@
  */
 import { cpus } from 'node:os';
 import { parseSpectrumCsv } from '../core/formats/spectrum-csv.js';
-import { Xoshiro128StarStar } from '../simulate/random/xoshiro128-star-star.js';
+import { Xoshiro128StarStar } from '../core/random/xoshiro128-star-star.js';
 
 /** The project's seeded generator (the simulator's), as a function returning uniforms in [0, 1). */
 const uniform = (seed: number): (() => number) => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { parseSpectrumCsv } from '../../../pipeline/core/formats/spectrum-csv.js';
-import { Xoshiro128StarStar } from '../../../pipeline/simulate/random/xoshiro128-star-star.js';
+import { Xoshiro128StarStar } from '../../../pipeline/core/random/xoshiro128-star-star.js';
 
 /** The project's seeded generator (the simulator's), as a function returning uniforms in [0, 1). */
 const uniform = (seed: number): (() => number) => {

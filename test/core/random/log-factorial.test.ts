@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { logFactorial } from '../../pipeline/simulate/random/log-factorial.js';
+import { logFactorial } from '../../../pipeline/core/random/log-factorial.js';
 
 describe('logFactorial', () => {
   it('gives ln 10! = ln 3 628 800 and ln 0! = ln 1! = 0 (exact factorials)', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { erfc } from '../../pipeline/simulate/math/erfc.js';
-import { normalCdf, normalUpperTail } from '../../pipeline/simulate/math/normal-cdf.js';
+import { erfc } from '../../../pipeline/core/math/erfc.js';
+import { normalCdf, normalUpperTail } from '../../../pipeline/core/math/normal-cdf.js';
 
 describe('erfc', () => {
   it('matches Abramowitz & Stegun (1964) Table 7.1 values of erf to the 10 printed decimals', () => {

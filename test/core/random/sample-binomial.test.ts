@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { logFactorial } from '../../pipeline/simulate/random/log-factorial.js';
-import { sampleBinomial } from '../../pipeline/simulate/random/sample-binomial.js';
-import { Xoshiro128StarStar } from '../../pipeline/simulate/random/xoshiro128-star-star.js';
+import { logFactorial } from '../../../pipeline/core/random/log-factorial.js';
+import { sampleBinomial } from '../../../pipeline/core/random/sample-binomial.js';
+import { Xoshiro128StarStar } from '../../../pipeline/core/random/xoshiro128-star-star.js';
 import { chiSquareUpper, sampleMoments } from './sampling-checks.js';
 
 const N = 200_000;

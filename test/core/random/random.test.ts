@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { splitMix64Sequence } from '../../pipeline/simulate/random/splitmix64.js';
-import { Xoshiro128StarStar } from '../../pipeline/simulate/random/xoshiro128-star-star.js';
+import { splitMix64Sequence } from '../../../pipeline/core/random/splitmix64.js';
+import { Xoshiro128StarStar } from '../../../pipeline/core/random/xoshiro128-star-star.js';
 
 describe('splitMix64', () => {
   it('matches the published first outputs of Vigna\'s splitmix64.c for seed 0', () => {
