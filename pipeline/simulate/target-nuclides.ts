@@ -13,6 +13,6 @@ export interface TargetNuclide {
  * appearance — the same resolution the reduction uses (pipeline/core/model/resolve-target.ts),
  * so simulated and reduced areal densities cannot drift apart.
  */
-export function targetNuclides(target: TargetConfig): TargetNuclide[] {
+export function targetNuclides(target: Pick<TargetConfig, 'layers'>): TargetNuclide[] {
   return [...nuclideTotals(resolveTarget(target))].map(([name, t]) => ({ nuclide: nuclide(name), atomsPerCm2: t.atomsPerCm2 }));
 }

@@ -188,7 +188,7 @@ describe('crossSectionRow: a hand case (README, "Cross sections"; 2000 keV 4He o
 });
 
 describe('crossSectionRow: rows without a value', () => {
-  const inelastic: PeakConfig = { label: '12C 4.44 MeV', target_nuclide: '12C', excitation_keV: 4439.8, method: 'window' };
+  const inelastic: PeakConfig = { label: '12C 4.44 MeV', target_nuclide: '12C', excitation_keV: 4439.8, method: 'window', detect: 'ejectile' };
 
   it('inelastic peak (12C, Ex = 4439.8 keV) at 10 MeV: dσ/dΩ is given, σ/σ_R is NaN (null in the table)', () => {
     const run = sample({ beamEnergyKeV: 10000 });

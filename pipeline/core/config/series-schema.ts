@@ -16,16 +16,28 @@ const id = (what: string) =>
 const compositionKey = z.string().regex(/^(\d{1,3})?[A-Z][a-z]?$/, "expected an element symbol ('Au') or a nuclide ('13C')");
 const nuclideName = z.string().regex(/^\d{1,3}[A-Z][a-z]?$/, "expected a nuclide as mass number + symbol, e.g. '12C', '4He'");
 
+const oneArealDensity = {
+  check: (l: { areal_density_1e15_per_cm2?: number | undefined; areal_density_ug_per_cm2?: number | undefined }) =>
+    (l.areal_density_1e15_per_cm2 === undefined) !== (l.areal_density_ug_per_cm2 === undefined),
+  message: 'give exactly one of areal_density_1e15_per_cm2 or areal_density_ug_per_cm2',
+};
+
+const layerFields = {
+  composition: z.record(compositionKey, z.number().positive()).meta({ description: 'atom ratios by element or nuclide' }),
+  areal_density_1e15_per_cm2: z.number().positive().optional().meta({ description: 'areal density', unit: '1e15 atoms/cm^2' }),
+  areal_density_ug_per_cm2: z.number().positive().optional().meta({ description: 'areal density', unit: 'ug/cm^2' }),
+};
+
 export const layerSchema = z
   .strictObject({
-    composition: z.record(compositionKey, z.number().positive()).meta({ description: 'atom ratios by element or nuclide' }),
-    areal_density_1e15_per_cm2: z.number().positive().optional().meta({ description: 'areal density', unit: '1e15 atoms/cm^2' }),
-    areal_density_ug_per_cm2: z.number().positive().optional().meta({ description: 'areal density', unit: 'ug/cm^2' }),
+    ...layerFields,
     areal_density_unc_rel: z.number().min(0).max(1).default(0).meta({ description: 'relative standard uncertainty of the areal density' }),
+    role: z.enum(['reference']).optional().meta({ description: 'reference: the layer whose Rutherford yield normalizes (internal-reference method)' }),
   })
-  .refine((l) => (l.areal_density_1e15_per_cm2 === undefined) !== (l.areal_density_ug_per_cm2 === undefined), {
-    message: 'give exactly one of areal_density_1e15_per_cm2 or areal_density_ug_per_cm2',
-  });
+  .refine(oneArealDensity.check, { message: oneArealDensity.message });
+
+/** A foil or dead layer the detected particle crosses (no role, its thickness uncertainty is not propagated). */
+export const foilSchema = z.strictObject(layerFields).refine(oneArealDensity.check, { message: oneArealDensity.message });
 
 export const detectorSchema = z.strictObject({
   id: id('detector id'),
@@ -33,10 +45,15 @@ export const detectorSchema = z.strictObject({
   angle_unc_deg: z.number().min(0).default(0).meta({ description: 'standard uncertainty of the angle', unit: 'deg' }),
   resolution_fwhm_keV: z.number().positive().meta({ description: 'energy resolution (FWHM)', unit: 'keV' }),
   solid_angle_msr: z.number().positive().meta({ description: 'nominal solid angle', unit: 'msr' }),
+  half_aperture_deg: z.number().min(0).max(20).default(0).meta({ description: 'angular acceptance (half-angle), for kinematic broadening', unit: 'deg' }),
+  dead_layer: foilSchema.optional().meta({ description: 'the detector entrance dead layer' }),
+  absorber: z.array(foilSchema).default([]).meta({ description: 'foils between target and detector, target side first' }),
 });
 
 export const targetSchema = z.strictObject({
   id: id('target id'),
+  tilt_deg: z.number().gt(-90).lt(90).default(0).meta({ description: 'beam incidence angle from the target normal, tilted towards the detectors (IBM geometry)', unit: 'deg' }),
+  exit_angle_mode: z.enum(['reflection', 'transmission']).default('reflection').meta({ description: 'reflection: detectors on the beam side; transmission: detectors behind the target' }),
   layers: z.array(layerSchema).min(1).meta({ description: 'layers, beam side first' }),
 });
 
@@ -45,6 +62,8 @@ export const peakSchema = z.strictObject({
   target_nuclide: nuclideName,
   excitation_keV: z.number().min(0).default(0).meta({ description: 'excitation energy of the residual nucleus', unit: 'keV' }),
   q_value_keV: z.number().optional().meta({ description: 'overrides Q computed from AME2020 masses and excitation_keV', unit: 'keV' }),
+  ejectile: nuclideName.optional().meta({ description: 'the light outgoing particle b of A(a,b)B (default: the projectile)' }),
+  detect: z.enum(['ejectile', 'recoil']).default('ejectile').meta({ description: 'which outgoing particle the detector sees: b (ejectile) or the residual B (recoil, e.g. elastic recoil detection)' }),
   method: z.enum(['window']).default('window').meta({ description: 'how the peak area is measured' }),
 });
 
@@ -77,6 +96,14 @@ export const extractSettingsSchema = z.strictObject({
   }),
 });
 
+export const physicsSettingsSchema = z.strictObject({
+  energy_loss: enumSetting(['none', 'layers'] as const, {
+    default: 'none',
+    doc: 'none = thin target (reaction at the beam energy); layers = slow the beam to mid-depth of each layer, and the detected particle through the exit path, foils and dead layer',
+  }),
+  stopping_tables: z.array(z.string().min(1)).default([]).meta({ description: 'CSV files of stopping powers (relative to the series folder) that override the built-in tables for the materials they name' }),
+});
+
 export const seriesSchema = z.strictObject({
   series: z.string().regex(/^[a-z0-9-]+$/, "series id must match [a-z0-9-]+, e.g. 'lab-2026-c12'"),
   title: z.string().default(''),
@@ -89,9 +116,12 @@ export const seriesSchema = z.strictObject({
   peaks: z.array(peakSchema).min(1),
   normalization: normalizationSchema,
   extract: extractSettingsSchema.default(extractSettingsSchema.parse({})),
+  physics: physicsSettingsSchema.default(physicsSettingsSchema.parse({})),
 });
 
 export type LayerConfig = z.output<typeof layerSchema>;
+export type FoilConfig = z.output<typeof foilSchema>;
+export type PhysicsSettings = z.output<typeof physicsSettingsSchema>;
 export type DetectorConfig = z.output<typeof detectorSchema>;
 export type TargetConfig = z.output<typeof targetSchema>;
 export type PeakConfig = z.output<typeof peakSchema>;

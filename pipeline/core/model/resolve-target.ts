@@ -1,4 +1,4 @@
-import type { TargetConfig } from '../config/series-schema.js';
+import type { FoilConfig, TargetConfig } from '../config/series-schema.js';
 import { molarMassGPerMol, naturalIsotopes, nuclide, parseNuclideName } from '../physics/nuclides.js';
 import { arealDensityUgPerCm2ToAtomsPerCm2 } from '../physics/units.js';
 import type { ResolvedNuclide } from './series-model.js';
@@ -10,17 +10,12 @@ import type { ResolvedNuclide } from './series-model.js';
  * Throws (UnknownElementError / UnknownNuclideError) for keys the tables do not hold; ingest
  * checks keys first and reports them as diagnostics.
  */
-export function resolveTarget(target: TargetConfig): ResolvedNuclide[] {
+export function resolveTarget(target: Pick<TargetConfig, 'layers'>): ResolvedNuclide[] {
   const out: ResolvedNuclide[] = [];
   target.layers.forEach((layer, li) => {
     const entries = Object.entries(layer.composition);
     const totalParts = entries.reduce((s, [, x]) => s + x, 0);
-    let atomsPerCm2: number;
-    if (layer.areal_density_1e15_per_cm2 !== undefined) atomsPerCm2 = layer.areal_density_1e15_per_cm2 * 1e15;
-    else {
-      const meanMolar = entries.reduce((s, [k, x]) => s + x * molarMassGPerMol(k), 0) / totalParts;
-      atomsPerCm2 = arealDensityUgPerCm2ToAtomsPerCm2(layer.areal_density_ug_per_cm2!, meanMolar);
-    }
+    const atomsPerCm2 = layerAtomsPerCm2(layer);
     for (const [key, parts] of entries) {
       const fraction = parts / totalParts;
       const isNuclide = parseNuclideName(key) !== null;
@@ -34,6 +29,15 @@ export function resolveTarget(target: TargetConfig): ResolvedNuclide[] {
     }
   });
   return out;
+}
+
+/** Atoms per cm² of a layer or foil, all its constituents (µg/cm² converted with the composition's mean molar mass). */
+export function layerAtomsPerCm2(layer: Pick<FoilConfig, 'composition' | 'areal_density_1e15_per_cm2' | 'areal_density_ug_per_cm2'>): number {
+  if (layer.areal_density_1e15_per_cm2 !== undefined) return layer.areal_density_1e15_per_cm2 * 1e15;
+  const entries = Object.entries(layer.composition);
+  const totalParts = entries.reduce((s, [, x]) => s + x, 0);
+  const meanMolar = entries.reduce((s, [k, x]) => s + x * molarMassGPerMol(k), 0) / totalParts;
+  return arealDensityUgPerCm2ToAtomsPerCm2(layer.areal_density_ug_per_cm2!, meanMolar);
 }
 
 export interface NuclideTotal {

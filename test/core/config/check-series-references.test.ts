@@ -1,15 +1,16 @@
 import { describe, expect, it } from 'vitest';
 import { checkSeriesReferences, type SeriesReferences } from '../../../pipeline/core/config/check-series-references.js';
+import { detectorSchema, peakSchema, targetSchema } from '../../../pipeline/core/config/series-schema.js';
 
 // The series contract of DESIGN.md (ids, nuclide names, references): a fact of this project's contract.
 const base = (): SeriesReferences => ({
   beam: { projectile: '4He', charge_state: 1 },
-  detectors: [{ id: 'd01', angle_deg: 150, angle_unc_deg: 0, resolution_fwhm_keV: 15, solid_angle_msr: 2 }],
+  detectors: [detectorSchema.parse({ id: 'd01', angle_deg: 150, angle_unc_deg: 0, resolution_fwhm_keV: 15, solid_angle_msr: 2 })],
   targets: [
-    { id: 'ref', layers: [{ composition: { Au: 1 }, areal_density_1e15_per_cm2: 60, areal_density_unc_rel: 0.03 }] },
-    { id: 'c', layers: [{ composition: { C: 1 }, areal_density_1e15_per_cm2: 100, areal_density_unc_rel: 0.05 }] },
+    targetSchema.parse({ id: 'ref', layers: [{ composition: { Au: 1 }, areal_density_1e15_per_cm2: 60, areal_density_unc_rel: 0.03 }] }),
+    targetSchema.parse({ id: 'c', layers: [{ composition: { C: 1 }, areal_density_1e15_per_cm2: 100, areal_density_unc_rel: 0.05 }] }),
   ],
-  peaks: [{ label: '12C elastic', target_nuclide: '12C', excitation_keV: 0, method: 'window' }],
+  peaks: [peakSchema.parse({ label: '12C elastic', target_nuclide: '12C', excitation_keV: 0, method: 'window' })],
   normalization: { reference_target: 'ref' },
 });
 const rules = (c: SeriesReferences) => checkSeriesReferences(c).map((i) => [i.severity, i.rule, i.path.join('.')]);
@@ -20,7 +21,7 @@ describe('checkSeriesReferences', () => {
     const c = base();
     c.detectors.push({ ...c.detectors[0]! });
     c.targets[1]!.layers[0]!.composition = { Xx: 1, '300C': 1, Tc: 1 };
-    c.peaks.push({ label: '28Si elastic', target_nuclide: '28Si', excitation_keV: 0, method: 'window' });
+    c.peaks.push({ label: '28Si elastic', target_nuclide: '28Si', excitation_keV: 0, method: 'window', detect: 'ejectile' });
     c.normalization = { reference_target: 'ref', reference_element: 'Ag' };
     expect(rules(c)).toEqual([
       ['error', 'series-duplicate-id', 'detectors.1.id'],
