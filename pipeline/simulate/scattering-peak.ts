@@ -1,5 +1,5 @@
 import { peakKinematics } from '../core/kinematics/peak-kinematics.js';
-import { screenedRutherfordLab } from '../core/kinematics/screened-rutherford.js';
+import { screenedRutherfordLab, type ScreeningModel } from '../core/kinematics/screened-rutherford.js';
 import type { Nuclide } from '../core/physics/index.js';
 import { energyCurveValue, type PeakTruth } from './truth-model.js';
 
@@ -36,7 +36,7 @@ export interface ScatteringPeak {
  */
 export function scatteringPeak(
   projectile: Nuclide, target: Nuclide, qValueKeV: number, beamEnergyKeV: number, thetaLabDeg: number,
-  truth: PeakTruth | undefined, screening: 'lecuyer' | 'none',
+  truth: PeakTruth | undefined, screening: ScreeningModel,
 ): ScatteringPeak | null {
   if (!(target.massU > projectile.massU)) return null;
   // The same kinematics and Rutherford code the reduction uses (pipeline/core/kinematics).

@@ -75,7 +75,7 @@ export const normalizationSchema = z.strictObject({
     .regex(/^[A-Z][a-z]?$/)
     .optional()
     .meta({ description: 'element of the reference target whose elastic peak normalizes (default: the heaviest)' }),
-  screening: enumSetting(['lecuyer', 'none'] as const, { default: 'lecuyer', doc: 'electron-screening correction of the Rutherford cross section' }),
+  screening: enumSetting(['lecuyer', 'andersen', 'none'] as const, { default: 'lecuyer', doc: 'electron-screening correction of the Rutherford cross section' }),
   reference_rule: enumSetting(['bracketing'] as const, {
     default: 'bracketing',
     doc: 'which reference runs normalize a sample run: bracketing = interpolate in time between the nearest before and after',

@@ -1,5 +1,5 @@
-import { elementSymbol, nuclide, type Nuclide } from '../physics/nuclides.js';
-import { qValueKeV } from '../physics/two-body-kinematics.js';
+import { nuclide, type Nuclide } from '../physics/nuclides.js';
+import { twoBodyParamsFromNuclides } from '../physics/two-body-params-from-nuclides.js';
 
 /** A configured peak as a two-body reaction A(a,b)B, with the particle the detector sees. */
 export interface Reaction {
@@ -30,32 +30,26 @@ export interface PeakReactionSpec {
 export type ReactionResult = { ok: true; value: Reaction } | { ok: false; reason: string };
 
 /**
- * The reaction of a peak: b defaults to the projectile; B follows from conservation of charge
- * and mass number; Q from the AME2020 atomic masses minus the excitation energy of B unless
- * `q_value_keV` overrides it. Elastic when {b, B} = {a, A} with Q = 0 (b = A, B = a is the same
- * reaction with the labels exchanged).
+ * The reaction of a peak: b defaults to the projectile; B and Q as in twoBodyParamsFromNuclides
+ * (conservation of charge and mass number; Q from AME2020 minus the excitation of B, exactly −Ex
+ * when the outgoing pair is the incoming one) unless `q_value_keV` overrides Q.
  */
 export function reactionOfPeak(projectile: Nuclide, peak: PeakReactionSpec): ReactionResult {
   const target = nuclide(peak.target_nuclide);
   const ejectile = peak.ejectile === undefined ? projectile : nuclide(peak.ejectile);
-  const z = projectile.z + target.z - ejectile.z;
-  const a = projectile.a + target.a - ejectile.a;
-  const symbol = z >= 0 ? elementSymbol(z) : undefined;
-  if (a < 1 || z < 0 || symbol === undefined) {
-    return { ok: false, reason: `${target.name}(${projectile.name},${ejectile.name}) leaves no residual nucleus (Z = ${z}, A = ${a})` };
-  }
-  let residual: Nuclide;
+  let p: ReturnType<typeof twoBodyParamsFromNuclides>;
   try {
-    residual = nuclide(`${a}${symbol}`);
-  } catch {
-    return { ok: false, reason: `residual nucleus of ${target.name}(${projectile.name},${ejectile.name}) (Z = ${z}, A = ${a}) is not in the AME2020 table` };
+    p = twoBodyParamsFromNuclides(projectile, target, ejectile, 1, peak.excitation_keV, peak.q_value_keV);
+  } catch (e) {
+    if (e instanceof RangeError) return { ok: false, reason: e.message };
+    throw e;
   }
-  const sameNuclei = (x: Nuclide, y: Nuclide) => x.z === y.z && x.a === y.a;
-  const pairUnchanged = (sameNuclei(ejectile, projectile) && sameNuclei(residual, target)) || (sameNuclei(ejectile, target) && sameNuclei(residual, projectile));
-  const q = peak.q_value_keV ?? (pairUnchanged ? -peak.excitation_keV : qValueKeV(projectile, target, ejectile, residual, peak.excitation_keV));
+  const residual = p.residual;
+  const same = (x: Nuclide, y: Nuclide) => x.name === y.name;
+  const pairUnchanged = (same(ejectile, projectile) && same(residual, target)) || (same(ejectile, target) && same(residual, projectile));
   const detectsRecoil = peak.detect === 'recoil';
   return {
     ok: true,
-    value: { projectile, target, ejectile, residual, detected: detectsRecoil ? residual : ejectile, detectsRecoil, qValueKeV: q, elastic: pairUnchanged && q === 0 },
+    value: { projectile, target, ejectile, residual, detected: detectsRecoil ? residual : ejectile, detectsRecoil, qValueKeV: p.qValueKeV, elastic: pairUnchanged && p.qValueKeV === 0 },
   };
 }

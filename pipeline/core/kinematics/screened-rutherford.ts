@@ -1,13 +1,17 @@
 import type { Nuclide } from '../physics/nuclides.js';
 import { rutherfordLabLogDerivatives, rutherfordLabMbPerSr } from '../physics/rutherford-lab.js';
 import { lecuyerScreeningFactor, lecuyerScreeningLogDerivativePerKeV } from '../physics/screening-lecuyer.js';
+import { andersenScreeningFactor, andersenScreeningLogDerivativePerKeV } from '../physics/screening-andersen.js';
+import { labToCmAngleDeg } from '../physics/lab-cm.js';
 
-export type ScreeningModel = 'lecuyer' | 'none';
+export type ScreeningModel = 'lecuyer' | 'andersen' | 'none';
 
 /**
- * The lab Rutherford cross section with recoil times the chosen screening factor F(Ecm),
- * with its logarithmic derivatives in beam energy and lab angle (for uncertainty
- * propagation): ∂lnσ/∂E = ∂lnσ_R/∂E + (∂lnF/∂Ecm)(M2/(M1+M2)).
+ * The lab Rutherford cross section with recoil times the chosen screening factor — L'Ecuyer
+ * F(Ecm), or Andersen F(Ecm, θcm) with θcm from the elastic lab angle — with its logarithmic
+ * derivatives in beam energy and lab angle (for uncertainty propagation):
+ * ∂lnσ/∂E = ∂lnσ_R/∂E + (∂lnF/∂Ecm)(M2/(M1+M2)); the angle dependence of Andersen's F is
+ * left out of ∂lnσ/∂θ (it is below 1e-3 per degree at backward angles, common practice).
  */
 export interface ScreenedRutherford {
   sigmaMbPerSr: number;
@@ -24,11 +28,20 @@ export function screenedRutherfordLab(projectile: Nuclide, target: Nuclide, beam
   if (screening === 'none') return { sigmaMbPerSr: sigma, screeningFactor: 1, ...d };
   const cmPerLab = m2 / (m1 + m2);
   const eCm = beamEnergyKeV * cmPerLab;
-  const f = lecuyerScreeningFactor(projectile.z, target.z, eCm);
+  let f: number;
+  let dLnF: number;
+  if (screening === 'andersen') {
+    const thetaCmDeg = labToCmAngleDeg(thetaLabDeg, m1 / m2);
+    f = andersenScreeningFactor(projectile.z, target.z, eCm, thetaCmDeg);
+    dLnF = andersenScreeningLogDerivativePerKeV(projectile.z, target.z, eCm, thetaCmDeg);
+  } else {
+    f = lecuyerScreeningFactor(projectile.z, target.z, eCm);
+    dLnF = lecuyerScreeningLogDerivativePerKeV(projectile.z, target.z, eCm);
+  }
   return {
     sigmaMbPerSr: sigma * f,
     screeningFactor: f,
-    dLnSigmaDEnergyPerKeV: d.dLnSigmaDEnergyPerKeV + lecuyerScreeningLogDerivativePerKeV(projectile.z, target.z, eCm) * cmPerLab,
+    dLnSigmaDEnergyPerKeV: d.dLnSigmaDEnergyPerKeV + dLnF * cmPerLab,
     dLnSigmaDThetaPerDeg: d.dLnSigmaDThetaPerDeg,
   };
 }
