@@ -5,6 +5,7 @@ import { Command, InvalidArgumentError, Option } from 'commander';
 import type { Diagnostic } from '../core/diagnostics/diagnostic.js';
 import { formatDiagnostic } from '../core/diagnostics/format-diagnostic.js';
 import { EXIT } from './exit-codes.js';
+import { registerExportCommand } from './export-command.js';
 import { createLogger } from './logger.js';
 import { SOFTWARE } from './software.js';
 
@@ -23,8 +24,7 @@ function positiveInt(v: string): number {
 
 /** The tunable settings, from the same zod definitions the validator uses. */
 async function settingsHelp(): Promise<string> {
-  const [{ describeSettings }, { extractSettingsSchema, normalizationSchema }] = await Promise.all([import('../core/config/setting.js'), import('../core/config/series-schema.js')]);
-  const rows = [...describeSettings('normalization', normalizationSchema), ...describeSettings('extract', extractSettingsSchema)].filter((r) => r.default !== '');
+  const rows = (await import('../core/config/series-schema.js')).seriesSettingRows();
   const width = Math.max(...rows.map((r) => r.key.length));
   return `Settings (keys in series.yaml; defaults in configs/defaults.json):\n${rows.map((r) => `  ${r.key.padEnd(width)}  ${r.description} [default ${r.default}${r.unit ? ` ${r.unit}` : ''}]`).join('\n')}`;
 }
@@ -83,6 +83,9 @@ async function main(argv: string[]): Promise<number> {
       const { runSimulateCommand } = await import('./simulate-command.js');
       exitCode = await runSimulateCommand(spec, o.out);
     });
+
+  (await import('./archive-commands.js')).registerArchiveCommands(program, (code) => (exitCode = code));
+  registerExportCommand(program, (code) => (exitCode = code));
 
   try {
     await program.parseAsync(argv);

@@ -8,4 +8,8 @@ export const EXIT = {
   usage: 2,
   /** Reduced, but some runs were set aside (see qc.arrow and the diagnostics). */
   someSetAside: 3,
+  /** nightly/rereduce: another run holds the out-root's lock (.xsred.lock); nothing done. */
+  locked: 4,
+  /** nightly/rereduce: an output could not be written (disk full, permissions, read-only file system); the previous version and the ledger stand. */
+  outputFailed: 5,
 } as const;

@@ -7,6 +7,8 @@ import { measureWindowSums } from '../core/counting/window-sums.js';
 import { SpectrumScratch } from '../core/formats/spectrum-csv.js';
 // The per-run module only: workers must not load the series-level readers (zod, yaml).
 import { ingestSpectrum } from '../../stages/ingest/ingest-spectrum.js';
+import { rebinCounts, rebinnedLength } from '../../stages/report/spectra/rebin-counts.js';
+import type { ReportSpectrum } from '../../stages/report/spectra/report-spectrum.js';
 
 /** What the engine asks of one run's spectrum: plain data, so it can cross a worker boundary. */
 export interface MeasureTask {
@@ -19,6 +21,16 @@ export interface MeasureTask {
   calibrations: Record<string, EnergyCalibration>;
   requests: PeakRequest[];
   widths: WindowWidths;
+  /** Keep a compact copy of these detectors' spectra for the summary page (absent: keep none). */
+  keepSpectra?: { detectors: string[]; maxBins: number };
+}
+
+/** Compact spectra of a run (detectors in `keepSpectra` order), `bins` values each in one flat array. */
+export interface CompactSpectra {
+  detectors: string[];
+  binWidthChannels: number;
+  bins: number;
+  counts: Float64Array;
 }
 
 export interface MeasureResult {
@@ -35,6 +47,7 @@ export interface MeasureResult {
    */
   sums: Float64Array;
   diagnostics: Diagnostic[];
+  spectra?: CompactSpectra;
 }
 
 export const SUMS_PER_REQUEST = 4;
@@ -65,7 +78,15 @@ export function measureRun(task: MeasureTask, bytes: Uint8Array): MeasureResult 
     const w = measureWindowSums(s.counts[task.detectorIds.indexOf(request.detector)]!, window.peak, window.left, window.right);
     sums.set([w.gross, w.grossMoment, w.left, w.right], i * SUMS_PER_REQUEST);
   });
-  return { ...base, ok: true, channelCount: s.channelCount, totals, sums };
+  const keep = task.keepSpectra;
+  if (keep === undefined || keep.detectors.length === 0) return { ...base, ok: true, channelCount: s.channelCount, totals, sums };
+  const bins = rebinnedLength(s.channelCount, keep.maxBins);
+  const counts = new Float64Array(bins * keep.detectors.length);
+  let binWidthChannels = 1;
+  keep.detectors.forEach((d, k) => {
+    binWidthChannels = rebinCounts(s.counts[task.detectorIds.indexOf(d)]!, keep.maxBins, counts, k * bins);
+  });
+  return { ...base, ok: true, channelCount: s.channelCount, totals, sums, spectra: { detectors: keep.detectors, binWidthChannels, bins, counts } };
 }
 
 /** The measured peaks of a run from its task and the sums: windows re-planned, net counts above background, centroid shift. */
@@ -79,4 +100,18 @@ export function measuredPeaks(task: MeasureTask, result: MeasureResult): Measure
     const shiftKeV = Number.isFinite(net.centroidChannel) ? channelToEnergyKeV(cal, net.centroidChannel) - request.expectedEnergyKeV : Number.NaN;
     return { request, window, net, shiftKeV };
   });
+}
+
+/** The compact spectra of a measured run as the report takes them, with the run's calibrations for the energy axis. */
+export function reportSpectra(task: MeasureTask, result: MeasureResult): ReportSpectrum[] {
+  const s = result.spectra;
+  if (!result.ok || s === undefined) return [];
+  return s.detectors.map((detector, k) => ({
+    run: task.run,
+    detector,
+    channelCount: result.channelCount,
+    binWidthChannels: s.binWidthChannels,
+    counts: s.counts.subarray(k * s.bins, (k + 1) * s.bins),
+    calibration: task.calibrations[detector],
+  }));
 }

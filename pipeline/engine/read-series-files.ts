@@ -43,6 +43,7 @@ export function readSeriesFiles(seriesDir: string): SeriesFiles {
       scalers: read('scalers.csv'),
       calibrations,
       spectra: list('spectra', /\.csv$/i),
+      readFile: read,
     },
     hashes,
     diagnostics,

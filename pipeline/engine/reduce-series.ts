@@ -4,18 +4,18 @@ import { energyUncertaintyKeV, type EnergyCalibration } from '../core/calibratio
 import { liveFraction, type LiveFraction } from '../core/counting/live-fraction.js';
 import type { MeasuredPeak, PeakRequest } from '../core/counting/peak-window.js';
 import type { QcRow, YieldRow } from '../core/model/result-rows.js';
-import { resolveTarget } from '../core/model/resolve-target.js';
 import type { IngestedSeries, RunRecord } from '../core/model/series-model.js';
 import { nuclide } from '../core/physics/nuclides.js';
 import { ingest } from '../../stages/ingest/index.js';
 import { calibrate } from '../../stages/calibrate/index.js';
-import { normalize, planReferenceWindow, referenceComposition } from '../../stages/normalize/index.js';
+import { normalize, planReferenceWindow, referenceComposition, referenceKey } from '../../stages/normalize/index.js';
+import { seriesPeakPlanner } from '../core/kinematics/series-peak-planner.js';
 import { extract, measuredKey, planPeakWindows } from '../../stages/extract/index.js';
-import { report } from '../../stages/report/index.js';
+import { pickSpectra, report, reportSettings, type ReportSpectrum } from '../../stages/report/index.js';
 import { writeFileAtomic } from './atomic-write.js';
 import { buildManifest } from './build-manifest.js';
 import { EXIT } from './exit-codes.js';
-import { measuredPeaks, type MeasureResult, type MeasureTask } from './measure-run.js';
+import { measuredPeaks, reportSpectra, type MeasureResult, type MeasureTask } from './measure-run.js';
 import { readSeriesFiles } from './read-series-files.js';
 import { runMeasurements } from './run-measurements.js';
 
@@ -25,6 +25,34 @@ export interface ReduceOptions {
   jobs: number;
   html: boolean;
   commandLine: string[];
+  // --- archive operation (pipeline/engine/archive); all optional, absent for `xsred reduce` ---
+  /** Write the files into this folder instead of `<outDir>/<series>` (a version being built). */
+  outSeriesDir?: string;
+  /** Measured results by content: a hit is used instead of reading and parsing the spectrum. */
+  measureCache?: MeasureCache;
+  /** Runs not reduced this time (spectrum still being written), each set aside with its note. */
+  holdBack?: ReadonlyMap<string, Diagnostic>;
+  /** Called as spectra are measured: (runs done, runs to do), cache hits counted as done at once. */
+  onProgress?: (done: number, total: number) => void;
+}
+
+/** Measured results kept by the archive ledger, keyed by the content of a task and its spectrum. */
+export interface MeasureCache {
+  lookup(task: MeasureTask): MeasureResult | undefined;
+  store(task: MeasureTask, result: MeasureResult): void;
+}
+
+/** What the archive ledger records per run (absent when the series could not be reduced). */
+export interface ReduceDetail {
+  series: IngestedSeries;
+  calibrationByRun: ReadonlyMap<string, { version: string; detectors: ReadonlyMap<string, EnergyCalibration> }>;
+  /** Sample run → the reference runs its normalization used (any detector), sorted. */
+  referenceRuns: ReadonlyMap<string, string[]>;
+  setAside: ReadonlyMap<string, Diagnostic[]>;
+  /** Run → sha256 of its spectrum bytes (measured now or from the cache). */
+  spectrumSha256: ReadonlyMap<string, string>;
+  /** Runs whose spectra were read and parsed this time (not from the cache). */
+  measuredRuns: string[];
 }
 
 export interface ReduceResult {
@@ -36,6 +64,7 @@ export interface ReduceResult {
   counts: { runs: number; reduced: number; setAside: number; notReduced: number; rows: number };
   /** Wall time of each phase, ms. */
   phasesMs: Record<string, number>;
+  detail?: ReduceDetail;
 }
 
 const byRunOrder = (index: Map<string, number>) => (a: Diagnostic, b: Diagnostic) =>
@@ -60,6 +89,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   const config = series.config;
   const setAside = new Map(series.setAside);
   const aside = (run: string, ds: Diagnostic[]) => setAside.set(run, [...(setAside.get(run) ?? []), ...ds]);
+  for (const [run, note] of opts.holdBack ?? []) if (series.runs.some((r) => r.run === run)) aside(run, [note]);
   const diagnostics: Diagnostic[] = [...files.diagnostics, ...series.diagnostics];
 
   const reducible = (r: RunRecord) => (r.kind === 'reference' || r.kind === 'sample') && !setAside.has(r.run);
@@ -68,18 +98,29 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
 
   phase('ingest_calibrate');
   // Plan what to measure in every usable run.
-  const projectile = nuclide(config.beam.projectile);
   const refComp = referenceComposition(config);
-  const resolved = new Map(config.targets.map((t) => [t.id, resolveTarget(t)]));
+  const planner = seriesPeakPlanner(config, series.stoppingTables);
+  const refTarget = config.targets.find((t) => t.id === config.normalization.reference_target)!;
+  const referenceProblems = new Map<string, Diagnostic>();
   const planProblems = new Map<string, Map<string, string>>();
   const tasks: MeasureTask[] = [];
+  // The summary page embeds compact spectra of at most report.max_spectra run × detector pairs.
+  const pageSettings = reportSettings(config);
+  const kept = opts.html ? pickSpectra(series.runs.filter(reducible).map((r) => r.run), config.detectors.map((d) => d.id), pageSettings.max_spectra) : new Map<string, string[]>();
   for (const run of series.runs) {
     if (!reducible(run)) continue;
     const rc = cal.byRun.get(run.run)!;
     let requests: PeakRequest[];
-    if (run.kind === 'reference') requests = config.detectors.map((d) => planReferenceWindow(projectile, refComp, d, run.beamEnergyKeV));
-    else {
-      const planned = planPeakWindows(config, projectile, run, resolved.get(run.target)!);
+    if (run.kind === 'reference') {
+      requests = config.detectors.map((d) => {
+        const w = planReferenceWindow(planner, refTarget, refComp, d, run.beamEnergyKeV);
+        if (w.problem !== undefined && !referenceProblems.has(d.id)) {
+          referenceProblems.set(d.id, { severity: 'warning', rule: 'reference-peak-not-planned', stage: 'normalize', run: run.run, detector: d.id, message: `the reference peak of ${refComp.element} cannot be placed in detector ${d.id}: ${w.problem} (first such run)` });
+        }
+        return w.request;
+      });
+    } else {
+      const planned = planPeakWindows(config, planner, run);
       requests = planned.filter((p) => p.problem === undefined).map((p) => p.request!);
       const problems = new Map<string, string>();
       for (const p of planned) if (p.problem !== undefined) problems.set(measuredKey(p.request!.detector, p.peakLabel), p.problem);
@@ -93,6 +134,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
       calibrations: Object.fromEntries(rc.detectors),
       requests,
       widths: config.extract,
+      ...(kept.has(run.run) ? { keepSpectra: { detectors: kept.get(run.run)!, maxBins: pageSettings.spectrum_bins } } : {}),
     });
   }
 
@@ -101,11 +143,28 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   const results = new Map<string, MeasureResult>();
   const peaksByRun = new Map<string, Map<string, MeasuredPeak>>();
   const taskOf = new Map(tasks.map((t) => [t.run, t]));
-  await runMeasurements(tasks, opts.jobs, (r) => {
+  const spectraByRun = new Map<string, ReportSpectrum[]>();
+  const onResult = (r: MeasureResult) => {
+    if (r.ok && r.spectra) spectraByRun.set(r.run, reportSpectra(taskOf.get(r.run)!, r));
     if (!r.ok) aside(r.run, r.diagnostics.filter((d) => d.severity === 'error'));
     diagnostics.push(...r.diagnostics.filter((d) => d.severity !== 'error'));
     results.set(r.run, r);
     if (r.ok) peaksByRun.set(r.run, new Map(measuredPeaks(taskOf.get(r.run)!, r).map((p) => [measuredKey(p.request.detector, p.request.key), p])));
+  };
+  // Archive operation: cached results of unchanged runs first, then only the rest is read.
+  const measuredRuns: string[] = [];
+  const toMeasure = opts.measureCache ? tasks.filter((t) => {
+    const hit = opts.measureCache!.lookup(t);
+    if (hit !== undefined) onResult(hit);
+    return hit === undefined;
+  }) : tasks;
+  let measuredCount = tasks.length - toMeasure.length;
+  opts.onProgress?.(measuredCount, tasks.length);
+  await runMeasurements(toMeasure, opts.jobs, (r) => {
+    opts.measureCache?.store(taskOf.get(r.run)!, r);
+    measuredRuns.push(r.run);
+    onResult(r);
+    opts.onProgress?.(++measuredCount, tasks.length);
   });
 
   phase('measure');
@@ -130,11 +189,12 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     measured: new Map(
       referenceRuns.map((r) => [
         r.run,
-        new Map(config.detectors.map((d) => [d.id, { peak: peaksByRun.get(r.run)!.get(measuredKey(d.id, `reference ${refComp.element}`))!, live: live.get(r.run)!.get(d.id)! }])),
+        new Map(config.detectors.map((d) => [d.id, { peak: peaksByRun.get(r.run)!.get(measuredKey(d.id, referenceKey(refComp.element)))!, live: live.get(r.run)!.get(d.id)! }])),
       ]),
     ),
+    planner,
   });
-  diagnostics.push(...norm.diagnostics);
+  diagnostics.push(...referenceProblems.values(), ...norm.diagnostics);
 
   phase('normalize');
   const ext = extract({
@@ -145,6 +205,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     normalization: norm.applied,
     calibrationVersion: new Map([...cal.byRun].map(([run, c]) => [run, c.version])),
     planProblems,
+    planner,
   });
   diagnostics.push(...ext.diagnostics);
 
@@ -162,7 +223,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     rows: ext.rows.length,
   };
   const exitCode = setAside.size > 0 ? EXIT.someSetAside : EXIT.ok;
-  const outSeriesDir = join(resolve(opts.outDir), config.series);
+  const outSeriesDir = opts.outSeriesDir ?? join(resolve(opts.outDir), config.series);
   const manifest = buildManifest({
     config,
     seriesDir,
@@ -186,6 +247,8 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     diagnostics,
     manifest,
     html: opts.html,
+    runs: series.runs,
+    spectra: tasks.flatMap((t) => spectraByRun.get(t.run) ?? []),
   });
   phase('report');
   for (const f of rep.files) writeFileAtomic(join(outSeriesDir, f.name), f.bytes);
@@ -198,6 +261,14 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     diagnostics,
     counts,
     phasesMs,
+    detail: {
+      series,
+      calibrationByRun: cal.byRun,
+      referenceRuns: new Map([...norm.applied].map(([run, byDet]) => [run, [...new Set([...byDet.values()].flatMap((a) => a?.referenceRuns ?? []))].sort()])),
+      setAside,
+      spectrumSha256: new Map([...results.values()].map((r) => [r.run, r.sha256])),
+      measuredRuns,
+    },
   };
 }
 

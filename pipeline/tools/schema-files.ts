@@ -1,7 +1,6 @@
 import { z } from 'zod';
 import { calibrationSchema } from '../core/config/calibration-schema.js';
-import { extractSettingsSchema, normalizationSchema, seriesSchema } from '../core/config/series-schema.js';
-import { describeSettings } from '../core/config/setting.js';
+import { extractSettingsSchema, normalizationSchema, physicsSettingsSchema, reportSettingsSchema, seriesSchema, seriesSettingRows } from '../core/config/series-schema.js';
 import { CROSS_SECTION_COLUMNS } from '../../stages/report/cross-section-columns.js';
 
 const withId = (schema: z.ZodType, id: string, title: string) => ({ $id: id, title, ...(z.toJSONSchema(schema, { io: 'input', unrepresentable: 'any' }) as object) });
@@ -11,6 +10,8 @@ export function schemaFiles(): { path: string; text: string }[] {
   const json = (v: unknown) => `${JSON.stringify(v, null, 2)}\n`;
   const defaults = {
     extract: extractSettingsSchema.parse({}),
+    physics: physicsSettingsSchema.parse({}),
+    report: reportSettingsSchema.parse({}),
     normalization: Object.fromEntries(
       Object.entries(normalizationSchema.shape)
         .map(([k, s]) => [k, (s as z.ZodType).safeParse(undefined)] as const)
@@ -27,7 +28,7 @@ export function schemaFiles(): { path: string; text: string }[] {
 
 /** The README table of every tunable setting, from the same definitions. */
 export function settingsTableMarkdown(): string {
-  const rows = [...describeSettings('normalization', normalizationSchema), ...describeSettings('extract', extractSettingsSchema)].filter((r) => r.default !== '');
+  const rows = seriesSettingRows();
   const lines = ['| key in series.yaml | values | unit | default | meaning |', '|---|---|---|---|---|'];
   for (const r of rows) lines.push(`| \`${r.key}\` | ${r.type} | ${r.unit} | ${r.default} | ${r.description} |`);
   return `${lines.join('\n')}\n`;

@@ -1,32 +1,29 @@
 import type { SeriesConfig } from '../../pipeline/core/config/series-schema.js';
 import type { PeakRequest } from '../../pipeline/core/counting/peak-window.js';
-import { peakKinematics } from '../../pipeline/core/kinematics/peak-kinematics.js';
-import type { ResolvedNuclide, RunRecord } from '../../pipeline/core/model/series-model.js';
-import type { Nuclide } from '../../pipeline/core/physics/nuclides.js';
+import type { SeriesPeakPlanner } from '../../pipeline/core/kinematics/series-peak-planner.js';
+import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 
 export interface PlannedPeak {
-  request: PeakRequest | null;
+  request: PeakRequest;
+  /** The configured peak label (the request key adds a branch suffix where there are two). */
   peakLabel: string;
   /** Why the peak cannot be looked for in this run and detector (kinematically forbidden, …). */
   problem?: string;
 }
 
 /**
- * For a sample run: every configured peak whose target nuclide is in the run's target, in
- * every detector, at the energy two-body kinematics puts it (thin target: no energy loss).
+ * For a sample run: every configured peak whose target nuclide is in the run's target, in every
+ * detector, where the series peak planner puts it (kinematics, and energy loss when enabled), with
+ * its predicted width (resolution ⊕ straggling ⊕ kinematic broadening ⊕ layer).
  */
-export function planPeakWindows(config: SeriesConfig, projectile: Nuclide, run: RunRecord, resolved: readonly ResolvedNuclide[]): PlannedPeak[] {
-  const present = new Set(resolved.map((r) => r.nuclide));
+export function planPeakWindows(config: SeriesConfig, planner: SeriesPeakPlanner, run: RunRecord): PlannedPeak[] {
+  const target = config.targets.find((t) => t.id === run.target)!;
   const out: PlannedPeak[] = [];
-  for (const peak of config.peaks) {
-    if (!present.has(peak.target_nuclide)) continue;
-    for (const det of config.detectors) {
-      const k = peakKinematics(projectile, peak.target_nuclide, peak.excitation_keV, peak.q_value_keV, run.beamEnergyKeV, det.angle_deg);
-      if (!k.ok) {
-        out.push({ request: { key: peak.label, detector: det.id, expectedEnergyKeV: Number.NaN, fwhmKeV: det.resolution_fwhm_keV }, peakLabel: peak.label, problem: k.reason });
-        continue;
-      }
-      out.push({ request: { key: peak.label, detector: det.id, expectedEnergyKeV: k.value.energyKeV, fwhmKeV: det.resolution_fwhm_keV }, peakLabel: peak.label });
+  for (const det of config.detectors) {
+    const plan = planner.samplePeaks(target, det, run.beamEnergyKeV);
+    for (const p of plan.peaks) out.push({ request: { key: p.key, detector: det.id, expectedEnergyKeV: p.detectedEnergyKeV, fwhmKeV: p.fwhmKeV }, peakLabel: p.label });
+    for (const [label, problem] of plan.problems) {
+      out.push({ request: { key: label, detector: det.id, expectedEnergyKeV: Number.NaN, fwhmKeV: det.resolution_fwhm_keV }, peakLabel: label, problem });
     }
   }
   return out;

@@ -1,6 +1,7 @@
 import type { Diagnostic } from '../../pipeline/core/diagnostics/diagnostic.js';
 import type { IngestedSeries, RunRecord } from '../../pipeline/core/model/series-model.js';
 import { readCalibrations, type CalibrationFileText } from './read-calibrations.js';
+import { readStoppingTables } from './read-stopping-tables.js';
 import { readRunlog } from './read-runlog.js';
 import { readScalers } from './read-scalers.js';
 import { readSeriesConfig } from './read-series-config.js';
@@ -16,6 +17,8 @@ export interface IngestInput {
   calibrations: CalibrationFileText[];
   /** File names found in spectra/. */
   spectra: string[];
+  /** Reads another file of the series folder (path relative to it), e.g. a stopping table series.yaml names; null if absent. */
+  readFile: (rel: string) => { file: string; text: string } | null;
 }
 
 export type IngestOutput = { ok: true; series: IngestedSeries } | { ok: false; diagnostics: Diagnostic[] };
@@ -44,6 +47,10 @@ export function ingest(input: IngestInput): IngestOutput {
   }
   if (cfg.config === null || input.runlog === null) return { ok: false, diagnostics };
   const config = cfg.config;
+
+  const stopping = readStoppingTables(config.physics.stopping_tables, input.readFile);
+  diagnostics.push(...stopping.diagnostics);
+  if (stopping.fatal) return { ok: false, diagnostics };
 
   const log = readRunlog(input.runlog.text, input.runlog.file);
   diagnostics.push(...log.diagnostics);
@@ -111,6 +118,6 @@ export function ingest(input: IngestInput): IngestOutput {
 
   return {
     ok: true,
-    series: { seriesDir: input.seriesDir, config, runs: log.runs, scalers, calibrations: cal.versions, spectrumFiles, setAside: aside, diagnostics },
+    series: { seriesDir: input.seriesDir, config, runs: log.runs, scalers, calibrations: cal.versions, spectrumFiles, setAside: aside, diagnostics, stoppingTables: stopping.tables },
   };
 }

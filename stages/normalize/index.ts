@@ -7,9 +7,11 @@ import { nuclide } from '../../pipeline/core/physics/nuclides.js';
 import { prepareBracketing } from './apply-bracketing.js';
 import type { AppliedNormalization, DetectorNormalization, ReferencePoint } from '../../pipeline/core/model/result-rows.js';
 import { referenceComposition } from './reference-nuclides.js';
-import { referencePoint, runRelUnc } from './reference-point.js';
+import { NON_RUTHERFORD_FLAG, referencePoint, runRelUnc } from './reference-point.js';
+import { seriesPeakPlanner, type SeriesPeakPlanner } from '../../pipeline/core/kinematics/series-peak-planner.js';
+import { onsetEnergyKeV } from '../../pipeline/core/physics/non-rutherford-onset.js';
 
-export { planReferenceWindow } from './plan-reference-window.js';
+export { planReferenceWindow, referenceKey, type ReferenceWindowPlan } from './plan-reference-window.js';
 export { referenceComposition, type ReferenceComposition } from './reference-nuclides.js';
 
 export interface NormalizeInput {
@@ -20,6 +22,8 @@ export interface NormalizeInput {
   sampleRuns: readonly RunRecord[];
   /** Reference run → detector → the measured reference peak and the live fraction. */
   measured: ReadonlyMap<string, ReadonlyMap<string, { peak: MeasuredPeak; live: LiveFraction }>>;
+  /** The series' peak planner (shared with measuring); default: a new one for the config. */
+  planner?: SeriesPeakPlanner;
 }
 
 export interface NormalizeOutput {
@@ -45,12 +49,17 @@ export function normalize(input: NormalizeInput): NormalizeOutput {
   const points: ReferencePoint[] = [];
   const detectors: DetectorNormalization[] = [];
   const byDetector = new Map<string, ReferencePoint[]>();
+  const refTarget = config.targets.find((t) => t.id === config.normalization.reference_target)!;
+  const planner = input.planner ?? seriesPeakPlanner(config);
+  const aboveOnset: ReferencePoint[] = [];
   for (const det of config.detectors) {
     const list: ReferencePoint[] = [];
     for (const run of input.referenceRuns) {
       const m = input.measured.get(run.run)?.get(det.id);
       if (m === undefined) continue;
-      const p = referencePoint(config, projectile, ref, run, det, m.peak, m.live);
+      const plan = planner.referencePeaks(refTarget, ref.element, det, run.beamEnergyKeV);
+      const p = referencePoint(config, projectile, ref, planner, plan, run, det, m.peak, m.live);
+      if (p.flags.includes(NON_RUTHERFORD_FLAG)) aboveOnset.push(p);
       if (p.solidAngleMsr === null) {
         diagnostics.push({ severity: 'warning', rule: 'reference-unusable', stage: 'normalize', run: run.run, detector: det.id, message: `reference peak of ${ref.element} could not be used (${p.flags.join(', ')}); this run does not normalize detector ${det.id}` });
       }
@@ -86,6 +95,20 @@ export function normalize(input: NormalizeInput): NormalizeOutput {
     detectors.push({ detector: det.id, nominalMsr: det.solid_angle_msr, meanMsr, chi2, ndf: Math.max(usable.length - 1, 0) });
     byDetector.set(det.id, list);
     points.push(...list);
+  }
+  if (aboveOnset.length > 0) {
+    const first = aboveOnset[0]!;
+    const onsets = ref.nuclides.map((n) => onsetEnergyKeV(projectile, n.nuclide)).filter((o) => o.ok);
+    const onset = onsets.length > 0 ? Math.min(...onsets.map((o) => o.energyKeV)) : Number.NaN;
+    diagnostics.push({
+      severity: 'warning',
+      rule: NON_RUTHERFORD_FLAG,
+      stage: 'normalize',
+      run: first.run,
+      detector: first.detector,
+      message: `reference run energy ${first.reactionEnergyKeV.toFixed(0)} keV is above the onset of non-Rutherford elastic scattering of ${projectile.name} on ${ref.element} (${onset.toFixed(0)} keV, ${onsets[0]?.ok ? onsets[0].formula : ''}; ${onsets[0]?.ok ? onsets[0].source : ''}) in ${aboveOnset.length} reference point${aboveOnset.length === 1 ? '' : 's'}: the normalization assumes a Rutherford yield and would be wrong`,
+      hint: 'use a heavier reference element or a lower reference beam energy; the rows it normalizes carry the flag',
+    });
   }
   const applied = new Map<string, Map<string, AppliedNormalization | null>>();
   const rules = new Map(config.detectors.map((d) => [d.id, prepareBracketing(byDetector.get(d.id) ?? [])]));

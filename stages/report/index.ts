@@ -4,11 +4,21 @@ import type { CrossSectionRow, DetectorNormalization, QcRow, ReferencePoint, Yie
 import { buildTable, tableToIpcFile } from '../../pipeline/core/tables/arrow-table.js';
 import { NORMALIZATION_COLUMNS, QC_COLUMNS, YIELD_COLUMNS } from './audit-columns.js';
 import { CROSS_SECTION_COLUMNS } from './cross-section-columns.js';
-import { excitationChartSpec, renderSvg } from './excitation-chart.js';
+import { renderCharts } from './charts/render-charts.js';
+import { reportSettings } from './report-settings.js';
+import type { ReportSpectrum } from './spectra/report-spectrum.js';
+import type { ReportRun, SummaryInput } from './summary-input.js';
 import { summaryHtml } from './summary-html.js';
+import { budgetFromColumns, type RowBudget } from './uncertainty-budget.js';
 
 export { CROSS_SECTION_COLUMNS } from './cross-section-columns.js';
 export { NORMALIZATION_COLUMNS, QC_COLUMNS, YIELD_COLUMNS } from './audit-columns.js';
+export { reportSettings, reportSettingsSchema, REPORT_DEFAULTS, type ReportSettings } from './report-settings.js';
+export { pickSpectra } from './spectra/pick-spectra.js';
+export type { ReportSpectrum, SpectrumCurve } from './spectra/report-spectrum.js';
+export type { ReportRun } from './summary-input.js';
+export type { RowBudget, UncertaintyComponent } from './uncertainty-budget.js';
+export { archiveIndexHtml, type ArchiveEntry } from './archive-index-html.js';
 
 export interface ReportInput {
   config: SeriesConfig;
@@ -26,7 +36,15 @@ export interface ReportInput {
     inputs_sha256: string;
     editions: Record<string, string>;
     calibration_versions: string[];
+    input_files?: Record<string, string>;
+    command_line?: string[];
   };
+  /** The runs of runlog.csv (overview, run notes, run order of the dead-time and drift plots). */
+  runs?: readonly ReportRun[];
+  /** Compact spectra to embed (the engine keeps at most report.max_spectra of them). */
+  spectra?: readonly ReportSpectrum[];
+  /** Uncertainty budget by component per row; without it, the stat/sys columns give the components. */
+  budgets?: readonly RowBudget[];
   /** Write summary.html (vega loads only then). */
   html: boolean;
 }
@@ -61,27 +79,30 @@ export async function report(input: ReportInput): Promise<{ files: OutputFile[] 
     { name: 'qc.arrow', bytes: tableToIpcFile(buildTable(QC_COLUMNS, input.qc, meta('quality control: one row per run × detector'))) },
   ];
   if (input.html) {
-    const charts: { title: string; svg: string }[] = [];
-    const ratioSpec = excitationChartSpec(input.rows, 'ratio');
-    if (ratioSpec) charts.push({ title: 'σ/σ_R against beam energy, per detector', svg: await renderSvg(ratioSpec) });
-    const other = input.rows.filter((r) => !Number.isFinite(r.ratioToRutherford));
-    const labSpec = excitationChartSpec(other, 'lab');
-    if (labSpec) charts.push({ title: 'dσ/dΩ (lab) against beam energy, peaks without a Rutherford ratio', svg: await renderSvg(labSpec) });
-    const html = summaryHtml({
+    const m = input.manifest;
+    const page: Omit<SummaryInput, 'charts'> = {
       config: input.config,
+      settings: reportSettings(input.config),
       rows: input.rows,
       points: input.points,
+      detectors: input.detectors,
+      yields: input.yields,
       qc: input.qc,
+      runs: input.runs ?? [],
+      spectra: input.spectra ?? [],
+      budgets: input.budgets ?? input.rows.filter((r) => Number.isFinite(r.crossSectionLabMbPerSr) && r.crossSectionLabMbPerSr !== 0).map(budgetFromColumns),
       diagnostics: input.diagnostics,
-      charts,
       provenance: {
-        softwareVersion: input.manifest.software.version,
-        configHash: input.manifest.config_sha256,
-        inputHash: input.manifest.inputs_sha256,
+        softwareVersion: m.software.version,
+        configHash: m.config_sha256,
+        inputHash: m.inputs_sha256,
+        inputFiles: m.input_files ?? {},
+        commandLine: m.command_line ?? [],
         editions,
-        calibrationVersions: input.manifest.calibration_versions,
+        calibrationVersions: m.calibration_versions,
       },
-    });
+    };
+    const html = summaryHtml({ ...page, charts: await renderCharts(page) });
     files.push({ name: 'summary.html', bytes: new TextEncoder().encode(html) });
   }
   files.push({ name: 'diagnostics.json', bytes: new TextEncoder().encode(`${JSON.stringify(input.diagnostics, null, 1)}\n`) });

@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { cpSync, existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -103,9 +104,14 @@ describe('determinism: the same inputs give byte-identical tables (README, "Outp
     expect(first.config_sha256).toMatch(/^[0-9a-f]{64}$/);
   });
 
-  it('writes a summary.html that needs no network and runs no script: no <script, no http(s) reference (only the SVG namespace names)', () => {
+  it("writes a summary.html that needs no network and runs only its own picker: one <script>, pinned by the CSP's sha256 (W3C CSP Level 3), no http(s) reference (only the SVG namespace names)", () => {
     const html = readFileSync(join(outs.first, spec.series, 'summary.html'), 'utf8');
-    expect(html).not.toMatch(/<script/i);
+    const scripts = [...html.matchAll(/<script>([\s\S]*?)<\/script>/gi)].map((m) => m[1]!);
+    expect(scripts).toHaveLength(1);
+    expect(html.match(/<script/gi)).toHaveLength(1);
+    const csp = (/http-equiv="Content-Security-Policy" content="([^"]*)"/.exec(html)?.[1] ?? '').replace(/&#39;/g, "'");
+    expect(csp).toContain("default-src 'none'");
+    expect(csp).toContain(`'sha256-${createHash('sha256').update(scripts[0]!).digest('base64')}'`);
     // xmlns="http://www.w3.org/2000/svg" names a namespace; browsers never fetch it. Anything else is a reference.
     const withoutNamespaces = html.replace(/\sxmlns(:[a-z]+)?="http:\/\/www\.w3\.org\/(2000\/svg|1999\/xlink)"/g, '');
     expect(withoutNamespaces.match(/.{0,60}https?:\/\/.{0,60}/g) ?? []).toEqual([]);
@@ -214,7 +220,9 @@ describe('summary.html escapes what series.yaml and runlog.csv say (OWASP XSS pr
 
   it('shows the title and the peak label escaped, never raw', () => {
     expect(html).not.toContain(titlePayload);
-    expect(html).not.toMatch(/<script/i);
+    // The page's one script is its own picker (pinned by the CSP); nothing a user wrote becomes one.
+    expect(html.match(/<script/gi)).toHaveLength(1);
+    expect(html).not.toContain('<script>alert');
     expect(html).toContain('&lt;script&gt;alert(1)&lt;/script&gt;');
     expect(html).not.toContain(tagPayload);
     expect(html).not.toMatch(/<img/i);

@@ -77,6 +77,7 @@ function input(v: Variant = {}): IngestInput {
     scalers: scalersText === null ? null : { file: 'scalers.csv', text: scalersText },
     calibrations: (v.calibrations ?? [CALIBRATION]).map((text, i) => ({ file: `calibrations/cal-${i}.yaml`, text })),
     spectra: v.spectra ?? SPECTRA,
+    readFile: () => null,
   };
 }
 

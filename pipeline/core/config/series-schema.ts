@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { enumSetting, numberSetting } from './setting.js';
+import { describeSettings, enumSetting, numberSetting, type SettingRow } from './setting.js';
 
 /**
  * The `series.yaml` contract (DESIGN.md, "Run-series layout"). One definition: ingest
@@ -104,6 +104,13 @@ export const physicsSettingsSchema = z.strictObject({
   stopping_tables: z.array(z.string().min(1)).default([]).meta({ description: 'CSV files of stopping powers (relative to the series folder) that override the built-in tables for the materials they name' }),
 });
 
+/** The summary page's settings. Caps keep a 1,000-run × 16-detector series' page small. */
+export const reportSettingsSchema = z.strictObject({
+  max_spectra: numberSetting({ default: 64, min: 0, max: 2000, doc: 'run × detector spectra embedded in summary.html (spread evenly over the series); the page says which were left out' }),
+  spectrum_bins: numberSetting({ default: 512, min: 16, max: 4096, doc: 'a spectrum is summed into at most this many bins for the page' }),
+  max_angular_energies: numberSetting({ default: 12, min: 1, max: 200, doc: 'beam energies drawn as angular distributions (spread evenly)' }),
+});
+
 export const seriesSchema = z.strictObject({
   series: z.string().regex(/^[a-z0-9-]+$/, "series id must match [a-z0-9-]+, e.g. 'lab-2026-c12'"),
   title: z.string().default(''),
@@ -117,14 +124,26 @@ export const seriesSchema = z.strictObject({
   normalization: normalizationSchema,
   extract: extractSettingsSchema.default(extractSettingsSchema.parse({})),
   physics: physicsSettingsSchema.default(physicsSettingsSchema.parse({})),
+  report: reportSettingsSchema.default(reportSettingsSchema.parse({})),
 });
 
 export type LayerConfig = z.output<typeof layerSchema>;
 export type FoilConfig = z.output<typeof foilSchema>;
 export type PhysicsSettings = z.output<typeof physicsSettingsSchema>;
+export type ReportSettings = z.output<typeof reportSettingsSchema>;
 export type DetectorConfig = z.output<typeof detectorSchema>;
 export type TargetConfig = z.output<typeof targetSchema>;
 export type PeakConfig = z.output<typeof peakSchema>;
 export type NormalizationConfig = z.output<typeof normalizationSchema>;
 export type ExtractSettings = z.output<typeof extractSettingsSchema>;
 export type SeriesConfig = z.output<typeof seriesSchema>;
+
+/** Every tunable setting with a default (for the CLI help, the README table and configs/defaults.json). */
+export function seriesSettingRows(): SettingRow[] {
+  return [
+    ...describeSettings('normalization', normalizationSchema),
+    ...describeSettings('extract', extractSettingsSchema),
+    ...describeSettings('physics', physicsSettingsSchema),
+    ...describeSettings('report', reportSettingsSchema),
+  ].filter((r) => r.default !== '');
+}

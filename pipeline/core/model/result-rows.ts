@@ -10,6 +10,8 @@ export interface ReferencePoint {
   detector: string;
   startedAtMs: number;
   beamEnergyKeV: number;
+  /** Cross-section-weighted reaction energy of the reference isotopes (= beam energy for a thin target), keV. */
+  reactionEnergyKeV: number;
   chargeUC: number;
   netCounts: number;
   netCountsUnc: number;
@@ -66,11 +68,19 @@ export interface CrossSectionRow {
   targetNuclide: string;
   beamEnergyKeV: number;
   beamEnergyUncKeV: number;
+  /** Energy at which the cross section is quoted: the beam energy, or mid-depth of the layer with energy loss, keV. */
+  reactionEnergyKeV: number;
+  /** Standard deviation of the reaction energy over the layer (depth and beam straggling), keV. */
+  reactionEnergySpreadKeV: number;
+  /** The particle the detector sees (nuclide name). */
+  detectedNuclide: string;
   angleLabDeg: number;
   angleLabUncDeg: number;
   angleCmDeg: number;
-  /** Expected lab energy of the detected particle, keV. */
+  /** Lab energy of the detected particle where it is made, keV. */
   peakEnergyKeV: number;
+  /** Expected energy deposited in the detector (after exit path, foils, dead layer): the peak position, keV. */
+  detectedEnergyKeV: number;
   qValueKeV: number;
   grossCounts: number;
   backgroundCounts: number;
@@ -94,6 +104,8 @@ export interface CrossSectionRow {
   crossSectionCmSysMbPerSr: number;
   rutherfordLabMbPerSr: number;
   screeningFactor: number;
+  /** lecuyer | andersen | none, where a Rutherford cross section was computed; '' otherwise. */
+  screeningModel: string;
   /** σ/σ_R (elastic peaks only; NaN otherwise). */
   ratioToRutherford: number;
   ratioToRutherfordStat: number;

@@ -1,6 +1,7 @@
 import type { Diagnostic } from '../diagnostics/diagnostic.js';
 import type { SeriesConfig } from '../config/series-schema.js';
 import type { EnergyCalibration } from '../calibration/energy-calibration.js';
+import type { UserStoppingTables } from '../physics/stopping/user-stopping-table.js';
 
 /** The domain model after ingest: typed, validated, with every problem recorded as data. */
 
@@ -56,6 +57,8 @@ export interface IngestedSeries {
   /** Run → the errors that set it aside. */
   setAside: Map<string, Diagnostic[]>;
   diagnostics: Diagnostic[];
+  /** User stopping tables (physics.stopping_tables), material → tables; undefined when none. */
+  stoppingTables?: UserStoppingTables | undefined;
 }
 
 export interface ResolvedNuclide {

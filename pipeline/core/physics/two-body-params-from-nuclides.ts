@@ -34,7 +34,7 @@ export function twoBodyParamsFromNuclides(
   // Scattering and recoil leave the same pair of nuclei: Q = −Ex exactly, with no rounding from the masses.
   const samePair = (ejectile.name === projectile.name && residual.name === target.name)
     || (ejectile.name === target.name && residual.name === projectile.name);
-  const q = qOverrideKeV ?? (samePair ? -excitationKeV : qValueKeV(projectile, target, ejectile, residual, excitationKeV));
+  const q = qOverrideKeV ?? (samePair ? 0 - excitationKeV : qValueKeV(projectile, target, ejectile, residual, excitationKeV));
   return {
     projectileMassU: projectile.massU,
     targetMassU: target.massU,
