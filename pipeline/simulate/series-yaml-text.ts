@@ -26,6 +26,7 @@ export function seriesYamlText(spec: SimulationSpec): string {
         areal_density_1e15_per_cm2: l.areal_density_1e15_per_cm2,
         areal_density_ug_per_cm2: l.areal_density_ug_per_cm2,
         areal_density_unc_rel: l.areal_density_unc_rel,
+        role: l.role,
       })}`);
     }
   }
