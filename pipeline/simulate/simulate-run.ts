@@ -4,7 +4,10 @@ import { sampleBinomial } from '../core/random/sample-binomial.js';
 import { samplePoisson } from '../core/random/sample-poisson.js';
 import { Xoshiro128StarStar } from '../core/random/xoshiro128-star-star.js';
 import type { PlannedRun } from './schedule-runs.js';
-import { scatteringPeak } from './scattering-peak.js';
+import { layerPeakLines } from './layer-peak-lines.js';
+
+/** Depth slices per layer when the series has energy loss (each a Gaussian line; enough for a smooth box, common practice). */
+const ENERGY_LOSS_SLICES = 24;
 import type { SimulationContext } from './simulation-context.js';
 import type { TruthRow } from './truth-table.js';
 
@@ -38,7 +41,8 @@ export function simulateRun(ctx: SimulationContext, run: PlannedRun, defects: st
   const nChannels = spec.channels;
   const beamParticles = microCoulombToParticles(run.trueChargeUC, spec.beam.charge_state);
   const calibration = spec.calibrations[run.calibration]!;
-  const nuclides = ctx.targets.get(run.target)!;
+  const layerNuclides = ctx.layerNuclides.get(run.target)!;
+  const target = spec.targets.find((t) => t.id === run.target)!;
   const expected: Float64Array[] = [];
   const pendingTruth: { row: TruthRow; incident: number; detector: number }[] = [];
   spec.detectors.forEach((det, di) => {
@@ -46,27 +50,46 @@ export function simulateRun(ctx: SimulationContext, run: PlannedRun, defects: st
     const background = ctx.backgroundPerUC(run.calibration, di);
     const spectrum = new Float64Array(nChannels);
     for (let ch = 0; ch < nChannels; ch++) spectrum[ch] = background[ch]! * run.trueChargeUC;
-    for (const tn of nuclides) {
-      for (const source of ctx.peakSources(tn.nuclide.name)) {
-        const peak = scatteringPeak(projectile, tn.nuclide, source.qValueKeV, run.beamEnergyKeV, det.angle_deg, source.truth, spec.normalization.screening);
-        if (peak === null) {
-          for (const p of source.declared) warnOnce(ctx, 'simulate-peak-not-generated', `forbidden:${p.label}:${det.id}`, `peak "${p.label}" cannot reach detector ${det.id} at ${run.beamEnergyKeV} keV (first such run; kinematically forbidden or not simulated: target not heavier than the projectile, below threshold, or two lab energies); no counts and no truth rows there`, run.run, det.id);
+    const beamTimesSr = beamParticles * MB_TO_CM2 * det.true_solid_angle_msr * 1e-3;
+    // A nuclide in several layers gives one truth row per declared peak (counts and atoms summed).
+    const truthByPeak = new Map<string, { row: TruthRow; incident: number; detector: number }>();
+    for (const ln of layerNuclides) {
+      for (const source of ctx.peakSources(ln.nuclide.name)) {
+        const peak = layerPeakLines({
+          reaction: source.reaction, kinematics: source.kinematics, truth: source.truth, screening: spec.normalization.screening,
+          target, layerIndex: ln.layerIndex, atomsPerCm2: ln.atomsPerCm2, detector: det, beamEnergyKeV: run.beamEnergyKeV,
+          energyLoss: spec.physics.energy_loss === 'layers', slowing: ctx.slowing, slices: ENERGY_LOSS_SLICES,
+        });
+        if ('reason' in peak) {
+          for (const p of source.declared) warnOnce(ctx, 'simulate-peak-not-generated', `forbidden:${p.label}:${det.id}`, `peak "${p.label}" cannot reach detector ${det.id} at ${run.beamEnergyKeV} keV (first such run): ${peak.reason}; no counts and no truth rows there`, run.run, det.id);
           continue;
         }
-        const incident = beamParticles * tn.atomsPerCm2 * peak.dsigmaLabMbPerSr * MB_TO_CM2 * det.true_solid_angle_msr * 1e-3;
-        addGaussianOverChannels(spectrum, incident, peak.peakEnergyKeV, det.resolution_fwhm_keV, cal.offset_keV, cal.gain_keV_per_channel);
+        let incident = 0;
+        for (const line of peak.lines) {
+          const n = beamTimesSr * line.atomsTimesSigma;
+          incident += n;
+          addGaussianOverChannels(spectrum, n, line.energyKeV, line.fwhmKeV, cal.offset_keV, cal.gain_keV_per_channel);
+        }
         if (run.kind !== 'sample') continue;
-        const peakChannel = (peak.peakEnergyKeV - cal.offset_keV) / cal.gain_keV_per_channel;
+        const t = peak.truth;
+        const peakChannel = (t.detectedEnergyKeV - cal.offset_keV) / cal.gain_keV_per_channel;
         for (const p of source.declared) {
           if (peakChannel < 0 || peakChannel > nChannels - 1) warnOnce(ctx, 'simulate-peak-outside-spectrum', `outside:${p.label}:${det.id}`, `peak "${p.label}" lies outside the spectrum of detector ${det.id} (channel ${peakChannel.toFixed(1)} of 0..${nChannels - 1}) in run ${run.run} (first such run)`, run.run, det.id);
-          pendingTruth.push({
+          const seen = truthByPeak.get(p.label);
+          if (seen) {
+            seen.incident += incident;
+            seen.row.nuclideAtomsPerCm2 += ln.atomsPerCm2;
+            continue;
+          }
+          truthByPeak.set(p.label, {
             detector: di,
             incident,
             row: {
-              run: run.run, detector: det.id, peak: p.label, target: run.target, targetNuclide: tn.nuclide.name, excitationKeV: source.excitationKeV,
-              beamEnergyKeV: run.beamEnergyKeV, thetaLabDeg: det.angle_deg, thetaCmDeg: peak.thetaCmDeg, peakEnergyKeV: peak.peakEnergyKeV, peakChannel,
-              dsigmaLabMbPerSr: peak.dsigmaLabMbPerSr, dsigmaCmMbPerSr: peak.dsigmaCmMbPerSr, sigmaOverRutherford: peak.sigmaOverRutherford,
-              rutherfordLabMbPerSr: peak.rutherfordLabMbPerSr, screeningFactor: peak.screeningFactor, nuclideAtomsPerCm2: tn.atomsPerCm2,
+              run: run.run, detector: det.id, peak: p.label, target: run.target, targetNuclide: ln.nuclide.name, excitationKeV: source.excitationKeV,
+              beamEnergyKeV: run.beamEnergyKeV, reactionEnergyKeV: t.reactionEnergyKeV, thetaLabDeg: det.angle_deg, thetaCmDeg: t.thetaCmDeg, peakEnergyKeV: t.emittedEnergyKeV,
+              detectedEnergyKeV: t.detectedEnergyKeV, peakChannel,
+              dsigmaLabMbPerSr: t.dsigmaLabMbPerSr, dsigmaCmMbPerSr: t.dsigmaCmMbPerSr, sigmaOverRutherford: t.sigmaOverRutherford,
+              rutherfordLabMbPerSr: t.rutherfordLabMbPerSr, screeningFactor: t.screeningFactor, nuclideAtomsPerCm2: ln.atomsPerCm2,
               trueChargeUC: run.trueChargeUC, liveFraction: Number.NaN, trueSolidAngleMsr: det.true_solid_angle_msr, expectedCounts: Number.NaN,
               calibrationVersion: calibration.version, defects,
             },
@@ -74,6 +97,7 @@ export function simulateRun(ctx: SimulationContext, run: PlannedRun, defects: st
         }
       }
     }
+    pendingTruth.push(...truthByPeak.values());
     expected.push(spectrum);
   });
 

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { detectorSchema, normalizationSchema, peakSchema, targetSchema } from '../core/config/series-schema.js';
+import { detectorSchema, normalizationSchema, peakSchema, physicsSettingsSchema, targetSchema } from '../core/config/series-schema.js';
 import { truthSchema } from './truth-model.js';
 import { checkSimulationSpec } from './check-simulation-spec.js';
 
@@ -56,6 +56,7 @@ export const simulationSpecObjectSchema = z
     targets: z.array(targetSchema).min(2),
     peaks: z.array(simulatedPeakSchema).min(1),
     normalization: normalizationSchema,
+    physics: physicsSettingsSchema.pick({ energy_loss: true }).default({ energy_loss: 'none' }).meta({ description: 'energy loss in the target layers (foils and dead layers are always crossed), as the reduction will be told' }),
     energies_keV: z.union([z.array(z.number().positive()).min(1), energyRangeSchema]).meta({ description: 'sample beam energies, a list or {from, to, step}', unit: 'keV' }),
     beam_energy_unc_keV: z.number().min(0).meta({ description: 'written to runlog.csv for every run', unit: 'keV' }),
     schedule: z.strictObject({

@@ -12,14 +12,18 @@ export interface TruthRow {
   targetNuclide: string;
   excitationKeV: number;
   beamEnergyKeV: number;
+  /** Beam energy where the truth is taken: the beam energy, or mid-depth of the layer with energy loss, keV. */
+  reactionEnergyKeV: number;
   thetaLabDeg: number;
   thetaCmDeg: number;
-  /** Lab energy of the peak centroid, keV, and its (fractional) channel in the run's calibration. */
+  /** Lab energy of the detected particle where it is made (at mid-depth), keV. */
   peakEnergyKeV: number;
+  /** Energy it deposits after the exit path, foils and dead layer, keV, and its (fractional) channel in the run's calibration. */
+  detectedEnergyKeV: number;
   peakChannel: number;
   dsigmaLabMbPerSr: number;
   dsigmaCmMbPerSr: number;
-  /** σ_lab / (σ_R,lab · F_screening), F = 1 when the series' screening is `none`. */
+  /** σ_lab / (σ_R,lab · F_screening), F = 1 when the series' screening is `none`; NaN (empty in the file) for non-elastic peaks. */
   sigmaOverRutherford: number;
   rutherfordLabMbPerSr: number;
   screeningFactor: number;
@@ -36,11 +40,14 @@ export interface TruthRow {
 }
 
 export const TRUTH_COLUMNS = [
-  'run', 'detector', 'peak', 'target', 'target_nuclide', 'excitation_keV', 'beam_energy_keV', 'theta_lab_deg', 'theta_cm_deg',
-  'peak_energy_keV', 'peak_channel', 'dsigma_domega_lab_mb_per_sr', 'dsigma_domega_cm_mb_per_sr', 'sigma_over_rutherford',
+  'run', 'detector', 'peak', 'target', 'target_nuclide', 'excitation_keV', 'beam_energy_keV', 'reaction_energy_keV', 'theta_lab_deg', 'theta_cm_deg',
+  'peak_energy_keV', 'detected_energy_keV', 'peak_channel', 'dsigma_domega_lab_mb_per_sr', 'dsigma_domega_cm_mb_per_sr', 'sigma_over_rutherford',
   'rutherford_lab_mb_per_sr', 'screening_factor', 'nuclide_areal_density_atoms_per_cm2', 'true_charge_uC', 'live_fraction',
   'true_solid_angle_msr', 'expected_counts', 'calibration_version', 'defects',
 ] as const;
+
+/** Empty where a quantity is not defined (σ/σ_R and the Rutherford columns of a non-elastic peak). */
+const orEmpty = (x: number, f: (x: number) => string) => (Number.isNaN(x) ? '' : f(x));
 
 /** truth.csv text: a header, then one line per row, numbers in fixed formats (10 significant digits for cross sections). */
 export function truthCsvText(rows: readonly TruthRow[]): string {
@@ -48,9 +55,9 @@ export function truthCsvText(rows: readonly TruthRow[]): string {
   for (const r of rows) {
     out.push([
       csvField(r.run), csvField(r.detector), csvField(r.peak), csvField(r.target), r.targetNuclide, fixed(r.excitationKeV, 3),
-      fixed(r.beamEnergyKeV, 3), fixed(r.thetaLabDeg, 6), fixed(r.thetaCmDeg, 6), fixed(r.peakEnergyKeV, 4), fixed(r.peakChannel, 4),
-      scientific(r.dsigmaLabMbPerSr, 9), scientific(r.dsigmaCmMbPerSr, 9), scientific(r.sigmaOverRutherford, 9),
-      scientific(r.rutherfordLabMbPerSr, 9), fixed(r.screeningFactor, 9), scientific(r.nuclideAtomsPerCm2, 9), fixed(r.trueChargeUC, 6),
+      fixed(r.beamEnergyKeV, 3), fixed(r.reactionEnergyKeV, 4), fixed(r.thetaLabDeg, 6), fixed(r.thetaCmDeg, 6), fixed(r.peakEnergyKeV, 4), fixed(r.detectedEnergyKeV, 4), fixed(r.peakChannel, 4),
+      scientific(r.dsigmaLabMbPerSr, 9), scientific(r.dsigmaCmMbPerSr, 9), orEmpty(r.sigmaOverRutherford, (x) => scientific(x, 9)),
+      orEmpty(r.rutherfordLabMbPerSr, (x) => scientific(x, 9)), orEmpty(r.screeningFactor, (x) => fixed(x, 9)), scientific(r.nuclideAtomsPerCm2, 9), fixed(r.trueChargeUC, 6),
       fixed(r.liveFraction, 9), fixed(r.trueSolidAngleMsr, 6), fixed(r.expectedCounts, 4), csvField(r.calibrationVersion), csvField(r.defects),
     ].join(','));
   }
