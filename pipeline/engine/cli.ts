@@ -51,9 +51,11 @@ async function main(argv: string[]): Promise<number> {
     .requiredOption('-o, --out <out-dir>', 'output folder; results go to <out-dir>/<series>/')
     .addOption(new Option('-j, --jobs <n>', 'threads that read spectra: this one and n − 1 workers').argParser(positiveInt).default(availableParallelism(), 'the number of cores'))
     .option('--no-html', 'skip summary.html (tables and manifest only)')
+    .addOption(new Option('--mc <n>', 'also propagate every row by Monte Carlo with n trials (JCGM 101; n >= 40): monte_carlo.arrow').argParser(positiveInt))
+    .addOption(new Option('--mc-seed <s>', 'seed of the Monte Carlo streams').argParser(positiveInt).default(1))
     .option('-q, --quiet', 'log warnings and errors only')
     .addHelpText('after', () => `${EXIT_HELP}\n\n${settings}`)
-    .action(async (seriesDir: string, o: { out: string; jobs: number; html: boolean; quiet?: boolean }) => {
+    .action(async (seriesDir: string, o: { out: string; jobs: number; html: boolean; quiet?: boolean; mc?: number; mcSeed: number }) => {
       const log = await createLogger(o.quiet ? 'warn' : 'info');
       if (!existsSync(seriesDir) || !statSync(seriesDir).isDirectory()) {
         log.error(`${seriesDir}: not a folder; expected a run-series folder holding series.yaml`);
@@ -62,7 +64,12 @@ async function main(argv: string[]): Promise<number> {
       }
       const { reduceSeries } = await import('./reduce-series.js');
       const t0 = performance.now();
-      const r = await reduceSeries({ seriesDir, outDir: o.out, jobs: o.jobs, html: o.html, commandLine: ['xsred', ...argv.slice(2)] });
+      if (o.mc !== undefined && o.mc < 40) {
+        log.error(`--mc ${o.mc}: a 95 % coverage interval needs at least 40 trials (JCGM 101:2008 §7.2.2 asks for M >> 1/(1 − p))`);
+        exitCode = EXIT.usage;
+        return;
+      }
+      const r = await reduceSeries({ seriesDir, outDir: o.out, jobs: o.jobs, html: o.html, commandLine: ['xsred', ...argv.slice(2)], ...(o.mc !== undefined ? { monteCarlo: { trials: o.mc, seed: o.mcSeed } } : {}) });
       for (const d of r.diagnostics) log[levelFor(d)]({ diagnostic: d }, formatDiagnostic(d));
       const ms = Math.round(performance.now() - t0);
       if (r.exitCode === EXIT.usage) {
@@ -82,6 +89,32 @@ async function main(argv: string[]): Promise<number> {
     .action(async (spec: string, o: { out: string }) => {
       const { runSimulateCommand } = await import('./simulate-command.js');
       exitCode = await runSimulateCommand(spec, o.out);
+    });
+
+  program
+    .command('calibrate')
+    .description('fit energy calibrations from the runs of kind calibration (a mixed alpha source or elastic peaks of a known target) and write each as a new version in <series-dir>/calibrations/')
+    .argument('<series-dir>', 'the run-series folder')
+    .option('-n, --dry-run', 'fit and print the residual report, write no file')
+    .option('-q, --quiet', 'log warnings and errors only')
+    .addHelpText('after', `
+Each calibration run gives calibrations/cal-<run>.yaml, valid from that run up to the run before the
+next calibration run, superseding the versions that cover those runs. Existing files are never
+changed. Peak search, line assignment and the fits are described in docs/fitting-and-calibration.md.
+Settings: calibrate.degree, calibrate.search_threshold, calibrate.match_tolerance_keV, calibrate.gain_range_rel.
+Exit codes: 0 every calibration run fitted; 3 some could not be (see the log); 2 unusable series.`)
+    .action(async (seriesDir: string, o: { dryRun?: boolean; quiet?: boolean }) => {
+      const log = await createLogger(o.quiet ? 'warn' : 'info');
+      if (!existsSync(seriesDir) || !statSync(seriesDir).isDirectory()) {
+        log.error(`${seriesDir}: not a folder; expected a run-series folder holding series.yaml`);
+        exitCode = EXIT.usage;
+        return;
+      }
+      const { calibrateSeries } = await import('./calibrate-command.js');
+      const r = calibrateSeries({ seriesDir, dryRun: o.dryRun ?? false });
+      for (const d of r.diagnostics) log[levelFor(d)]({ diagnostic: d }, formatDiagnostic(d));
+      process.stdout.write(r.report);
+      exitCode = r.exitCode;
     });
 
   (await import('./archive-commands.js')).registerArchiveCommands(program, (code) => (exitCode = code));

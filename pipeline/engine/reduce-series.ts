@@ -8,9 +8,9 @@ import type { IngestedSeries, RunRecord } from '../core/model/series-model.js';
 import { nuclide } from '../core/physics/nuclides.js';
 import { ingest } from '../../stages/ingest/index.js';
 import { calibrate } from '../../stages/calibrate/index.js';
-import { normalize, planReferenceWindow, referenceComposition, referenceKey } from '../../stages/normalize/index.js';
+import { normalize, normalizingElement, planNormalizingWindows, referenceKey } from '../../stages/normalize/index.js';
 import { seriesPeakPlanner } from '../core/kinematics/series-peak-planner.js';
-import { extract, measuredKey, planPeakWindows } from '../../stages/extract/index.js';
+import { extract, measuredKey, pageBudgets, planPeakWindows, seriesUncertaintyTables } from '../../stages/extract/index.js';
 import { pickSpectra, report, reportSettings, type ReportSpectrum } from '../../stages/report/index.js';
 import { writeFileAtomic } from './atomic-write.js';
 import { buildManifest } from './build-manifest.js';
@@ -18,6 +18,8 @@ import { EXIT } from './exit-codes.js';
 import { measuredPeaks, reportSpectra, type MeasureResult, type MeasureTask } from './measure-run.js';
 import { readSeriesFiles } from './read-series-files.js';
 import { runMeasurements } from './run-measurements.js';
+import { measurePlan } from './fit/measure-plan.js';
+import { fitTables } from './fit/fit-tables.js';
 
 export interface ReduceOptions {
   seriesDir: string;
@@ -34,6 +36,8 @@ export interface ReduceOptions {
   holdBack?: ReadonlyMap<string, Diagnostic>;
   /** Called as spectra are measured: (runs done, runs to do), cache hits counted as done at once. */
   onProgress?: (done: number, total: number) => void;
+  /** `--mc N`: Monte Carlo propagation (JCGM 101) of every row with N trials from this seed (monte_carlo.arrow). */
+  monteCarlo?: { trials: number; seed: number };
 }
 
 /** Measured results kept by the archive ledger, keyed by the content of a task and its spectrum. */
@@ -98,9 +102,16 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
 
   phase('ingest_calibrate');
   // Plan what to measure in every usable run.
-  const refComp = referenceComposition(config);
+  const element = normalizingElement(config);
   const planner = seriesPeakPlanner(config, series.stoppingTables);
-  const refTarget = config.targets.find((t) => t.id === config.normalization.reference_target)!;
+  // The normalizing peak: in reference runs, and in sample runs for internal-reference and monitor.
+  const normalizingWindows = (run: RunRecord) => {
+    const w = planNormalizingWindows(config, planner, element, run);
+    for (const p of w.problems) {
+      if (!referenceProblems.has(p.detector)) referenceProblems.set(p.detector, { severity: 'warning', rule: 'reference-peak-not-planned', stage: 'normalize', run: run.run, detector: p.detector, message: `the reference peak of ${element} cannot be placed in detector ${p.detector}: ${p.problem} (first such run)` });
+    }
+    return w.requests;
+  };
   const referenceProblems = new Map<string, Diagnostic>();
   const planProblems = new Map<string, Map<string, string>>();
   const tasks: MeasureTask[] = [];
@@ -111,20 +122,19 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     if (!reducible(run)) continue;
     const rc = cal.byRun.get(run.run)!;
     let requests: PeakRequest[];
+    let labels: string[] | undefined;
     if (run.kind === 'reference') {
-      requests = config.detectors.map((d) => {
-        const w = planReferenceWindow(planner, refTarget, refComp, d, run.beamEnergyKeV);
-        if (w.problem !== undefined && !referenceProblems.has(d.id)) {
-          referenceProblems.set(d.id, { severity: 'warning', rule: 'reference-peak-not-planned', stage: 'normalize', run: run.run, detector: d.id, message: `the reference peak of ${refComp.element} cannot be placed in detector ${d.id}: ${w.problem} (first such run)` });
-        }
-        return w.request;
-      });
+      requests = normalizingWindows(run);
     } else {
       const planned = planPeakWindows(config, planner, run);
       requests = planned.filter((p) => p.problem === undefined).map((p) => p.request!);
+      labels = planned.filter((p) => p.problem === undefined).map((p) => p.peakLabel);
       const problems = new Map<string, string>();
       for (const p of planned) if (p.problem !== undefined) problems.set(measuredKey(p.request!.detector, p.peakLabel), p.problem);
       if (problems.size) planProblems.set(run.run, problems);
+      const extra = normalizingWindows(run);
+      requests.push(...extra);
+      labels.push(...extra.map((r) => r.key));
     }
     tasks.push({
       run: run.run,
@@ -135,6 +145,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
       requests,
       widths: config.extract,
       ...(kept.has(run.run) ? { keepSpectra: { detectors: kept.get(run.run)!, maxBins: pageSettings.spectrum_bins } } : {}),
+      ...measurePlan(config, run.kind === 'reference' ? 'reference' : 'sample', requests, labels ?? requests.map((r) => r.key)),
     });
   }
 
@@ -172,7 +183,8 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
   const usable = (kind: RunRecord['kind']) => series.runs.filter((r) => r.kind === kind && !setAside.has(r.run) && results.get(r.run)?.ok === true);
   const referenceRuns = usable('reference');
   const sampleRuns = usable('sample');
-  if (referenceRuns.length === 0) {
+  const needsReferenceRuns = config.normalization.method === 'reference-run' || config.normalization.method === 'monitor';
+  if (referenceRuns.length === 0 && needsReferenceRuns) {
     // Every reference spectrum was unusable: nothing can be normalized, so nothing is written.
     for (const ds of setAside.values()) diagnostics.push(...ds);
     diagnostics.push({ severity: 'error', rule: 'series-no-reference-run', stage: 'engine', file: 'runlog.csv', message: 'no reference run has a usable spectrum: the series cannot be normalized' });
@@ -182,16 +194,23 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     live.set(r.run, new Map(config.detectors.map((d) => [d.id, liveFraction(series.scalers?.get(r.run)?.get(d.id), r.realTimeS)])));
   }
 
+  // run → detector → the normalizing peak measured in that spectrum, with its live fraction
+  const normalizingPeaks = (runs: readonly RunRecord[]) =>
+    new Map(
+      runs.map((r) => [
+        r.run,
+        new Map(config.detectors.flatMap((d) => {
+          const peak = element === null ? undefined : peaksByRun.get(r.run)!.get(measuredKey(d.id, referenceKey(element)));
+          return peak === undefined ? [] : [[d.id, { peak, live: live.get(r.run)!.get(d.id)! }] as const];
+        })),
+      ]),
+    );
   const norm = normalize({
     config,
-    referenceRuns,
+    referenceRuns: needsReferenceRuns ? referenceRuns : [],
     sampleRuns,
-    measured: new Map(
-      referenceRuns.map((r) => [
-        r.run,
-        new Map(config.detectors.map((d) => [d.id, { peak: peaksByRun.get(r.run)!.get(measuredKey(d.id, referenceKey(refComp.element)))!, live: live.get(r.run)!.get(d.id)! }])),
-      ]),
-    ),
+    measured: normalizingPeaks(needsReferenceRuns ? referenceRuns : []),
+    sampleMeasured: normalizingPeaks(sampleRuns),
     planner,
   });
   diagnostics.push(...referenceProblems.values(), ...norm.diagnostics);
@@ -202,15 +221,20 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     sampleRuns,
     measured: peaksByRun,
     live,
-    normalization: norm.applied,
+    normalization: norm.rows,
+    keepModels: opts.monteCarlo !== undefined,
     calibrationVersion: new Map([...cal.byRun].map(([run, c]) => [run, c.version])),
     planProblems,
     planner,
   });
   diagnostics.push(...ext.diagnostics);
+  const uncertainty = seriesUncertaintyTables(config, ext.rows, ext.uncertainties, opts.monteCarlo);
+  diagnostics.push(...uncertainty.diagnostics);
 
   phase('extract');
   const { yields, qc } = auditRows(series, setAside, results, peaksByRun, live, cal.byRun);
+  const fitOut = fitTables(tasks, results, qc);
+  diagnostics.push(...fitOut.diagnostics);
   for (const ds of setAside.values()) diagnostics.push(...ds);
   const runIndex = new Map(series.runs.map((r) => [r.run, r.index]));
   diagnostics.sort(byRunOrder(runIndex));
@@ -249,6 +273,9 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     html: opts.html,
     runs: series.runs,
     spectra: tasks.flatMap((t) => spectraByRun.get(t.run) ?? []),
+    ...(opts.html ? { budgets: pageBudgets(ext.rows, ext.uncertainties) } : {}),
+    uncertainty,
+    ...(tasks.some((t) => t.fits !== undefined) ? { fits: fitOut.fits, fitResiduals: fitOut.residuals } : {}),
   });
   phase('report');
   for (const f of rep.files) writeFileAtomic(join(outSeriesDir, f.name), f.bytes);
@@ -264,7 +291,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     detail: {
       series,
       calibrationByRun: cal.byRun,
-      referenceRuns: new Map([...norm.applied].map(([run, byDet]) => [run, [...new Set([...byDet.values()].flatMap((a) => a?.referenceRuns ?? []))].sort()])),
+      referenceRuns: new Map([...norm.rows].map(([run, byDet]) => [run, [...new Set([...byDet.values()].flatMap((a) => a?.referenceRuns ?? []))].sort()])),
       setAside,
       spectrumSha256: new Map([...results.values()].map((r) => [r.run, r.sha256])),
       measuredRuns,

@@ -33,6 +33,7 @@ export function checkSimulationSpec(spec: SimulationSpec, ctx: z.RefinementCtx):
   });
 
   const targetIds = new Set(spec.targets.map((t) => t.id));
+  if (spec.normalization.reference_target === undefined) issue(['normalization', 'reference_target'], 'the simulated run plan holds reference runs: name their target in normalization.reference_target (whatever the method)');
   if (!targetIds.has(spec.schedule.sample_target)) issue(['schedule', 'sample_target'], `sample_target "${spec.schedule.sample_target}" is not a target id (${[...targetIds].join(', ')})`);
   else if (spec.schedule.sample_target === spec.normalization.reference_target) issue(['schedule', 'sample_target'], 'sample_target must differ from the reference target');
   if (spec.dead_time.model === 'uniform' && spec.dead_time.live_fraction_min > spec.dead_time.live_fraction_max) {

@@ -49,7 +49,7 @@ export interface LayerPeakInput {
 }
 
 const SIGMA_TO_FWHM = 2.3548200450309493;
-const slab = (l: Parameters<typeof layerAtomsPerCm2>[0]): Slab => ({ composition: l.composition, atomsPerCm2: layerAtomsPerCm2(l) });
+const slab = (l: Parameters<typeof layerAtomsPerCm2>[0] & { stopping_material?: string | undefined }): Slab => ({ composition: l.composition, atomsPerCm2: layerAtomsPerCm2(l), material: l.stopping_material });
 
 /**
  * The simulated signal of a peak from one layer, slice by slice — written for the simulator on
@@ -70,7 +70,7 @@ export function layerPeakLines(x: LayerPeakInput): { lines: PeakLine[]; truth: P
   const foils = [...det.absorber, ...(det.dead_layer ? [det.dead_layer] : [])].map(slab);
   const slow = (who: Reaction['projectile'], s: Slab, fraction: number, cos: number, e: number) => {
     if (fraction <= 0) return { ok: true as const, energyOutKeV: e, stragglingKeV2: 0 };
-    return x.slowing!.slowDown(who, s.composition, (s.atomsPerCm2 * fraction) / cos, e);
+    return x.slowing!.slowDown(who, s.composition, (s.atomsPerCm2 * fraction) / cos, e, s.material);
   };
   // Beam at the front of the layer.
   let eFront = x.beamEnergyKeV;

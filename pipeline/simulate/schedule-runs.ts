@@ -5,7 +5,8 @@ export interface PlannedRun {
   /** 1-based position in runlog.csv. */
   index: number;
   run: string;
-  kind: 'sample' | 'reference';
+  /** calibration: inserted by insertCalibrationRuns (spec.calibration_runs), never by scheduleRuns. */
+  kind: 'sample' | 'reference' | 'calibration';
   target: string;
   beamEnergyKeV: number;
   /** True integrated charge (the runlog gets this × charge_reading_factor). */
@@ -47,7 +48,8 @@ export function scheduleRuns(spec: SimulationSpec): PlannedRun[] {
       index,
       run: `r${String(index).padStart(width, '0')}`,
       kind: k.kind,
-      target: isSample ? s.sample_target : spec.normalization.reference_target,
+      // checkSimulationSpec requires a reference target: the plan always holds reference runs.
+      target: isSample ? s.sample_target : spec.normalization.reference_target!,
       beamEnergyKeV: k.energyKeV,
       trueChargeUC,
       realTimeS,

@@ -7,7 +7,7 @@ import { yamlFlow, yamlScalar } from './yaml-flow.js';
  * nominal solid angle only; cross-section truths, true solid angles and every other
  * simulation-only value stay out (they are in truth.csv and the spec).
  */
-const foil = (f: FoilConfig) => ({ composition: f.composition, areal_density_1e15_per_cm2: f.areal_density_1e15_per_cm2, areal_density_ug_per_cm2: f.areal_density_ug_per_cm2 });
+const foil = (f: FoilConfig) => ({ composition: f.composition, areal_density_1e15_per_cm2: f.areal_density_1e15_per_cm2, areal_density_ug_per_cm2: f.areal_density_ug_per_cm2, stopping_material: f.stopping_material });
 
 export function seriesYamlText(spec: SimulationSpec): string {
   const lines: string[] = [
@@ -35,15 +35,17 @@ export function seriesYamlText(spec: SimulationSpec): string {
         areal_density_1e15_per_cm2: l.areal_density_1e15_per_cm2,
         areal_density_ug_per_cm2: l.areal_density_ug_per_cm2,
         areal_density_unc_rel: l.areal_density_unc_rel,
+        stopping_material: l.stopping_material,
         role: l.role,
       })}`);
     }
   }
   lines.push('peaks:');
   for (const p of spec.peaks) {
-    lines.push(`  - ${yamlFlow({ label: p.label, target_nuclide: p.target_nuclide, excitation_keV: p.excitation_keV, q_value_keV: p.q_value_keV, ejectile: p.ejectile, detect: p.detect === 'ejectile' ? undefined : p.detect, method: p.method })}`);
+    lines.push(`  - ${yamlFlow({ label: p.label, target_nuclide: p.target_nuclide, excitation_keV: p.excitation_keV, q_value_keV: p.q_value_keV, ejectile: p.ejectile, detect: p.detect === 'ejectile' ? undefined : p.detect, method: p.method, fit_group: p.fit_group })}`);
   }
   if (spec.physics.energy_loss !== 'none') lines.push(`physics: ${yamlFlow({ energy_loss: spec.physics.energy_loss })}`);
   lines.push(`normalization: ${yamlFlow(spec.normalization as Record<string, string | number | undefined>)}`);
+  if (spec.calibration_runs !== undefined) lines.push(`calibration_sources: [${yamlFlow({ id: spec.calibration_runs.source_id, lines_from: spec.calibration_runs.lines_from })}]`);
   return `${lines.join('\n')}\n`;
 }

@@ -12,6 +12,9 @@ import { simulateRun, type ScalerReading } from './simulate-run.js';
 import { simulationContext } from './simulation-context.js';
 import { simulationSpecSchema, type SimulationSpecInput } from './simulation-spec.js';
 import { truthCsvText, type TruthRow } from './truth-table.js';
+import { insertCalibrationRuns } from './insert-calibration-runs.js';
+import { calibrationRunlogLine, simulateCalibrationRun } from './simulate-calibration-run.js';
+import { withGainDrift } from './with-gain-drift.js';
 
 export interface SimulationResult {
   /** `<outDir>/<series>`. */
@@ -40,14 +43,17 @@ export function simulateSeries(specInput: SimulationSpecInput, outDir: string): 
   mkdirSync(join(partial, 'spectra'), { recursive: true });
   mkdirSync(join(partial, 'calibrations'), { recursive: true });
   try {
-    const ctx = simulationContext(spec);
-    const runs = scheduleRuns(spec);
+    const scheduled = insertCalibrationRuns(spec, scheduleRuns(spec));
     writeFileSync(join(partial, 'series.yaml'), seriesYamlText(spec));
+    // Each version holds from the first run generated with it to the last (calibration runs included).
     spec.calibrations.forEach((c, i) => {
+      const own = scheduled.filter((s) => s.run.calibration === i);
       const next = spec.calibrations[i + 1];
-      const text = calibrationYamlText(c, runs[c.from_run_index - 1]!.run, next === undefined ? undefined : runs[next.from_run_index - 2]!.run);
+      const text = calibrationYamlText(c, own[0]!.run.run, next === undefined ? undefined : own[own.length - 1]!.run.run);
       writeFileSync(join(partial, 'calibrations', `${c.version}.yaml`), text);
     });
+    const drifted = withGainDrift(spec, scheduled);
+    const ctx = simulationContext(drifted.spec);
     const detectorIds = spec.detectors.map((d) => d.id);
     const targetIds = new Set(spec.targets.map((t) => t.id));
     let unlistedTarget = 'unlisted-target';
@@ -55,8 +61,13 @@ export function simulateSeries(specInput: SimulationSpecInput, outDir: string): 
     const runlog = [RUNLOG_HEADER];
     const scalerRows: { run: string; detector: string; reading: ScalerReading }[] = [];
     const truth: TruthRow[] = [];
-    for (const run of runs) {
-      const defects = spec.defects.filter((d) => d.run_index === run.index);
+    for (const { run, planIndex } of drifted.runs) {
+      if (run.kind === 'calibration') {
+        runlog.push(calibrationRunlogLine(run));
+        writeFileSync(join(partial, 'spectra', `${run.run}.csv`), encodeSpectrumCsv(detectorIds, simulateCalibrationRun(drifted.spec, run)));
+        continue;
+      }
+      const defects = spec.defects.filter((d) => d.run_index === planIndex);
       const kinds = new Set(defects.map((d) => d.kind));
       const simulated = simulateRun(ctx, run, [...kinds].join(';'));
       truth.push(...simulated.truth);

@@ -91,6 +91,18 @@ export const simulationSpecObjectSchema = z
       exponential_decay_keV: z.number().positive().default(200),
     }).default({ flat_per_keV_per_uC: 0, exponential_per_keV_per_uC: 0, exponential_decay_keV: 200 })
       .meta({ description: 'continuum b(E) = flat + exponential·exp(−E/decay), counts per keV per uC' }),
+    calibration_runs: z.strictObject({
+      source_id: z.string().regex(/^[A-Za-z0-9][A-Za-z0-9_.-]*$/).meta({ description: 'calibration source id (series.yaml calibration_sources, runlog target of the runs)' }),
+      lines_from: z.array(z.string()).min(1).meta({ description: 'alpha emitters of the mixed source (pipeline/core/spectrum/alpha-source-lines.ts)' }),
+      counts_per_nuclide: z.number().positive().meta({ description: 'expected counts per emitter in each detector, shared among its lines by emission probability', unit: 'counts' }),
+      background_per_channel: z.number().min(0).default(0.2).meta({ description: 'flat background of a calibration spectrum', unit: 'counts/channel' }),
+      real_time_s: z.number().positive().default(600).meta({ unit: 's' }),
+    }).optional().meta({ description: 'a calibration run with a mixed alpha source before the first run of every calibration version (indices elsewhere count the plan without them)' }),
+    gain_drift: z.array(z.strictObject({
+      run_index: runIndex,
+      gain_factor: z.number().positive().meta({ description: 'the true gain of this run is the calibration file\'s gain times this factor' }),
+      detector: z.string().optional().meta({ description: 'the drifting detector (default: all)' }),
+    })).default([]).meta({ description: 'gain drift injected into single runs; the calibration files do not know it' }),
     defects: z.array(z.strictObject({
       run_index: runIndex,
       kind: z.enum(DEFECT_KINDS),

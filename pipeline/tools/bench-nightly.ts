@@ -4,7 +4,9 @@
  * folder) after a first night has reduced it. Each night is a fresh process, wall time with
  * start-up; the ledger must show zero runs reduced and zero spectra read, or this fails.
  *
- *   npm run build && node dist/pipeline/tools/bench-nightly.js
+ * `npm run bench` runs it and puts its two table rows in the README; alone:
+ *
+ *   npm run bench:nightly
  */
 import { spawnSync } from 'node:child_process';
 import { cpus, tmpdir } from 'node:os';

@@ -6,13 +6,15 @@
  *     generated once into the temp folder) as a user runs it: a fresh process, wall time
  *     including start-up, median of several runs, with 2 worker threads and with 1;
  *  3. peak memory (max RSS, worker threads included) for the first 250 and all 1,000 runs,
- *     to show it does not grow with the number of runs.
+ *     to show it does not grow with the number of runs;
+ *  4. `xsred nightly` over the same series: the first night, and a no-change night
+ *     (bench-nightly, a child process; it fails if a no-change night does reduction work).
  *
  *   npm run bench [-- --write-readme]
  */
 import { execFileSync, spawnSync } from 'node:child_process';
 import { cpus, tmpdir } from 'node:os';
-import { copyFileSync, existsSync, mkdirSync, readFileSync, rmSync, symlinkSync, writeFileSync, readdirSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, readFileSync, rmSync, statSync, symlinkSync, writeFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { simulateSeries } from '../simulate/simulate-series.js';
@@ -89,9 +91,15 @@ const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.len
 const one = { medianS: median(oneTimes) };
 const two = { medianS: median(twoTimes) };
 const html = timeReduce(full, ['--jobs', '1'], 3);
+const pageMB = statSync(join(work, 'out', BENCH_SPEC.series, 'summary.html')).size / 1e6;
 const small = subset(250);
 const rss250 = maxRssMiB(small, 1);
 const rss1000 = maxRssMiB(full, 1);
+// bench-nightly prints its figures as table rows ("| what | figure |"); they join the table as they are.
+const nightly = execFileSync(process.execPath, [join(root, 'dist/pipeline/tools/bench-nightly.js')], { encoding: 'utf8' })
+  .split('\n')
+  .filter((l) => l.startsWith('| '));
+if (nightly.length === 0) throw new Error('bench-nightly printed no figures');
 const machine = `${cpus()[0]?.model ?? 'unknown CPU'}, ${cpus().length} cores, Node ${process.version}`;
 const table = [
   `Measured by \`npm run bench\` on ${machine}, ${new Date().toISOString().slice(0, 10)}.`,
@@ -101,8 +109,9 @@ const table = [
   `| spectrum parser, one core | ${/(\d+) MB\/s/.exec(parse)?.[1] ?? '?'} MB/s |`,
   `| \`xsred reduce\`, 1,000 runs × 16 detectors × 4,096 channels (${sizeMB.toFixed(0)} MB of CSV), in one thread (\`--jobs 1\`), tables only (\`--no-html\`) | ${one.medianS.toFixed(2)} s wall, start-up included (median of 5) |`,
   `| the same with the main thread and one worker (\`--jobs 2\`, the default on 2 cores) | ${two.medianS.toFixed(2)} s (median of 5, interleaved with the line above) |`,
-  `| the same with summary.html (vega-lite charts, one thread) | ${html.medianS.toFixed(2)} s |`,
+  `| the same with summary.html (charts as inline SVG, one thread) | ${html.medianS.toFixed(2)} s (median of 3; the page is ${pageMB.toFixed(1)} MB) |`,
   `| peak memory (max RSS, threads included), first 250 runs / all 1,000 runs | ${rss250.toFixed(0)} MiB / ${rss1000.toFixed(0)} MiB |`,
+  ...nightly,
   '',
 ].join('\n');
 console.log(`\n${table}`);

@@ -76,6 +76,7 @@ export function combineRows(rows: readonly CombinableRow[], toleranceKeV: number
 }
 
 function combineGroup(group: CombinableRow[]): CombinedRow {
+  if (group.length === 1) return single(group[0]!);
   group.sort((a, b) => a.index - b.index);
   const counts = new Map<string, number>();
   for (const r of group) for (const id of new Set(r.components.filter((c) => c.class !== 'uncorrelated').map(identity))) counts.set(id, (counts.get(id) ?? 0) + 1);
@@ -107,5 +108,39 @@ function combineGroup(group: CombinableRow[]): CombinedRow {
     count: group.length,
     rows: group.map((r) => r.index),
     runs: group.map((r) => r.run),
+  };
+}
+
+/** A group of one row: every shared component is common, the uncorrelated ones independent (ν = 0, S = 1). */
+function single(r: CombinableRow): CombinedRow {
+  let indep2 = 0;
+  const shared = new Map<string, number>();
+  for (const c of r.components) {
+    if (c.class === 'uncorrelated') indep2 += c.value * c.value;
+    else {
+      const id = identity(c);
+      shared.set(id, (shared.get(id) ?? 0) + c.value);
+    }
+  }
+  let common2 = 0;
+  for (const v of shared.values()) common2 += v * v;
+  const uIndep = Math.sqrt(indep2);
+  const uCommon = Math.sqrt(common2);
+  return {
+    peak: r.peak,
+    angleLabDeg: r.angleLabDeg,
+    beamEnergyKeV: r.beamEnergyKeV,
+    beamEnergySpreadKeV: 0,
+    value: r.value,
+    uncertaintyIndependent: uIndep,
+    uncertaintyCommon: uCommon,
+    uncertaintyTotal: Math.hypot(uIndep, uCommon),
+    chi2: 0,
+    ndf: 0,
+    chi2PerNdf: Number.NaN,
+    scaleFactor: 1,
+    count: 1,
+    rows: [r.index],
+    runs: [r.run],
   };
 }

@@ -3,14 +3,18 @@ import type { SeriesConfig } from '../../pipeline/core/config/series-schema.js';
 import type { LiveFraction } from '../../pipeline/core/counting/live-fraction.js';
 import type { MeasuredPeak } from '../../pipeline/core/counting/peak-window.js';
 import { seriesPeakPlanner, type SeriesPeakPlanner } from '../../pipeline/core/kinematics/series-peak-planner.js';
-import type { AppliedNormalization, CrossSectionRow } from '../../pipeline/core/model/result-rows.js';
+import type { CrossSectionRow } from '../../pipeline/core/model/result-rows.js';
+import type { EstimateCache } from '../../pipeline/core/normalization/measurement-model.js';
+import type { RowNormalization } from '../../pipeline/core/normalization/row-normalization.js';
 import { nuclideTotals, resolveTarget } from '../../pipeline/core/model/resolve-target.js';
 import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import { nuclide } from '../../pipeline/core/physics/nuclides.js';
-import { crossSectionRow } from './cross-section-row.js';
+import { crossSectionRowModels, type RowUncertainty } from './cross-section-row.js';
 import { interferenceFlags, type KnownLine } from './interference-flags.js';
 
 export { planPeakWindows, type PlannedPeak } from './plan-peak-windows.js';
+export type { RowUncertainty } from './cross-section-row.js';
+export { pageBudgets, seriesUncertaintyTables, type PageBudget, type SeriesUncertaintyTables } from './series-uncertainty-tables.js';
 
 export interface ExtractInput {
   config: SeriesConfig;
@@ -19,16 +23,21 @@ export interface ExtractInput {
   /** Run → `${detector}\t${peak label}` → measured peak. */
   measured: ReadonlyMap<string, ReadonlyMap<string, MeasuredPeak>>;
   live: ReadonlyMap<string, ReadonlyMap<string, LiveFraction>>;
-  normalization: ReadonlyMap<string, ReadonlyMap<string, AppliedNormalization | null>>;
+  /** Sample run → detector → the exposure model (normalize stage's `rows`). */
+  normalization: ReadonlyMap<string, ReadonlyMap<string, RowNormalization | null>>;
   calibrationVersion: ReadonlyMap<string, string>;
   /** Problems found while planning (kinematically forbidden peaks): run → `${detector}\t${label}` → reason. */
   planProblems: ReadonlyMap<string, ReadonlyMap<string, string>>;
   /** The series' peak planner (shared with measuring); default: a new one for the config. */
   planner?: SeriesPeakPlanner;
+  /** Keep every row's value models in `uncertainties` (needed for Monte Carlo); default true. */
+  keepModels?: boolean;
 }
 
 export interface ExtractOutput {
   rows: CrossSectionRow[];
+  /** Per row (same order): its value models and first-order budgets. */
+  uncertainties: RowUncertainty[];
   diagnostics: Diagnostic[];
 }
 
@@ -43,6 +52,13 @@ export function extract(input: ExtractInput): ExtractOutput {
   const planner = input.planner ?? seriesPeakPlanner(config);
   const projectile = nuclide(config.beam.projectile);
   const rows: CrossSectionRow[] = [];
+  const uncertainties: RowUncertainty[] = [];
+  const push = (r: { row: CrossSectionRow; uncertainty: RowUncertainty }) => {
+    rows.push(r.row);
+    uncertainties.push(r.uncertainty);
+  };
+  // One cache per series: a normalization part shared by many rows is differentiated once.
+  const cache: EstimateCache = new WeakMap();
   const diagnostics: Diagnostic[] = [];
   // One warning per peak (with its first case), not one per run × detector.
   const problems = new Map<string, { count: number; first: Diagnostic }>();
@@ -51,6 +67,7 @@ export function extract(input: ExtractInput): ExtractOutput {
     config.targets.map((t) => [t.id, new Map([...nuclideTotals(resolveTarget(t))].map(([n, tot]) => [n, tot.atomsPerCm2 * nuclide(n).z ** 2]))] as const),
   );
   const targets = new Map(config.targets.map((t) => [t.id, t]));
+  const linesByPlan = new WeakMap<object, KnownLine[]>();
   for (const run of input.sampleRuns) {
     const target = targets.get(run.target)!;
     const strength = strengthByTarget.get(run.target)!;
@@ -58,11 +75,17 @@ export function extract(input: ExtractInput): ExtractOutput {
       const plan = planner.samplePeaks(target, det, run.beamEnergyKeV);
       if (plan.peaks.length === 0 && plan.problems.size === 0) continue;
       // Every peak this spectrum is expected to hold: each nuclide's elastic peak and the configured peaks.
-      const lines: KnownLine[] = planner.elasticPeaks(target, det, run.beamEnergyKeV).peaks.map((p) => ({ name: p.key, energyKeV: p.detectedEnergyKeV, strength: strength.get(p.reaction.target.name)! }));
-      for (const p of plan.peaks) if (!p.reaction.elastic) lines.push({ name: p.key, energyKeV: p.detectedEnergyKeV, strength: Number.POSITIVE_INFINITY });
+      // The plans are memoized per energy, so the lines are built once per plan, not per run.
+      let lines = linesByPlan.get(plan);
+      if (lines === undefined) {
+        lines = planner.elasticPeaks(target, det, run.beamEnergyKeV).peaks.map((p) => ({ name: p.key, energyKeV: p.detectedEnergyKeV, strength: strength.get(p.reaction.target.name)! }));
+        for (const p of plan.peaks) if (!p.reaction.elastic) lines.push({ name: p.key, energyKeV: p.detectedEnergyKeV, strength: Number.POSITIVE_INFINITY });
+        linesByPlan.set(plan, lines);
+      }
+      const runProblems = input.planProblems.get(run.run);
       for (const peak of config.peaks) {
         const planned = plan.peaks.filter((p) => p.label === peak.label);
-        const problem = plan.problems.get(peak.label) ?? input.planProblems.get(run.run)?.get(measuredKey(det.id, peak.label));
+        const problem = plan.problems.get(peak.label) ?? runProblems?.get(measuredKey(det.id, peak.label));
         if (planned.length === 0 && problem === undefined) continue;
         if (problem !== undefined) {
           const seen = problems.get(peak.label);
@@ -80,9 +103,11 @@ export function extract(input: ExtractInput): ExtractOutput {
           normalization: input.normalization.get(run.run)?.get(det.id) ?? null,
           calibrationVersion: input.calibrationVersion.get(run.run) ?? '',
           planner,
+          cache,
+          keepModels: input.keepModels !== false,
         };
         if (planned.length === 0) {
-          rows.push(crossSectionRow({ ...common, planned: null, key: peak.label, measured: null, extraFlags: live.source === 'none' ? ['no-live-time'] : [] }));
+          push(crossSectionRowModels({ ...common, planned: null, key: peak.label, measured: null, extraFlags: live.source === 'none' ? ['no-live-time'] : [] }));
           continue;
         }
         for (const p of planned) {
@@ -94,7 +119,7 @@ export function extract(input: ExtractInput): ExtractOutput {
           if (measured && measured.net && Number.isFinite(measured.shiftKeV) && Math.abs(measured.shiftKeV) > shiftTol && measured.net.net > 5 * Math.sqrt(measured.net.netVariance)) {
             extraFlags.push('peak-shifted');
           }
-          rows.push(crossSectionRow({ ...common, planned: p, key: p.key, measured, extraFlags }));
+          push(crossSectionRowModels({ ...common, planned: p, key: p.key, measured, extraFlags }));
         }
       }
     }
@@ -102,5 +127,5 @@ export function extract(input: ExtractInput): ExtractOutput {
   for (const { count, first } of problems.values()) {
     diagnostics.push(count === 1 ? first : { ...first, message: `${first.message}; the same in ${count - 1} more run × detector combination${count === 2 ? '' : 's'} (their rows carry no value and a flag)` });
   }
-  return { rows, diagnostics };
+  return { rows, uncertainties, diagnostics };
 }

@@ -20,12 +20,12 @@ export interface MonteCarloRow {
  * input once per trial for all its paths. Row i draws the stream (seed, i), so a row's result
  * does not depend on the other rows. Cost: M × (number of leaf inputs) per row.
  */
-export function monteCarloRows(models: readonly MeasurementModel[], trials: number, seed: number): MonteCarloRow[] {
+export function monteCarloRows(models: readonly MeasurementModel[], trials: number, seed: number, streamKeys: readonly number[] = models.map((_, i) => i)): MonteCarloRow[] {
   if (!Number.isSafeInteger(trials) || trials < 40) throw new RangeError(`--mc needs a whole number of trials >= 40 (a 95 % interval needs M > 1/(1 − p) = 20), got ${trials}`);
   return models.map((model, i) => {
     const flat = flattenModel(model);
     try {
-      const r = propagateMonteCarlo(flat.evaluate, flat.distributions, { trials, seed, streamKeys: [i], coverageProbability: 0.95 });
+      const r = propagateMonteCarlo(flat.evaluate, flat.distributions, { trials, seed, streamKeys: [streamKeys[i]!], coverageProbability: 0.95 });
       return { mean: r.mean, standardUncertainty: r.standardUncertainty, lower95: r.symmetricInterval[0], upper95: r.symmetricInterval[1], problem: '' };
     } catch (e) {
       if (!(e instanceof RangeError)) throw e;

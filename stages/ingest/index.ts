@@ -1,7 +1,7 @@
 import type { Diagnostic } from '../../pipeline/core/diagnostics/diagnostic.js';
 import type { IngestedSeries, RunRecord } from '../../pipeline/core/model/series-model.js';
 import { readCalibrations, type CalibrationFileText } from './read-calibrations.js';
-import { readStoppingTables } from './read-stopping-tables.js';
+import { checkStoppingMaterials, readStoppingTables } from './read-stopping-tables.js';
 import { readRunlog } from './read-runlog.js';
 import { readScalers } from './read-scalers.js';
 import { readSeriesConfig } from './read-series-config.js';
@@ -50,7 +50,9 @@ export function ingest(input: IngestInput): IngestOutput {
 
   const stopping = readStoppingTables(config.physics.stopping_tables, input.readFile);
   diagnostics.push(...stopping.diagnostics);
-  if (stopping.fatal) return { ok: false, diagnostics };
+  const materials = checkStoppingMaterials(config, stopping.tables);
+  diagnostics.push(...materials);
+  if (stopping.fatal || materials.length > 0) return { ok: false, diagnostics };
 
   const log = readRunlog(input.runlog.text, input.runlog.file);
   diagnostics.push(...log.diagnostics);
@@ -89,7 +91,7 @@ export function ingest(input: IngestInput): IngestOutput {
     const errs: Diagnostic[] = [];
     if (r.target !== '' && !targetIds.has(r.target)) {
       errs.push({ severity: 'error', rule: 'run-unknown-target', message: `target "${r.target}" is not defined in series.yaml`, expected: [...targetIds].join(', '), actual: r.target, ...where, column: r.targetColumn });
-    } else if (r.kind === 'reference' && r.target !== config.normalization.reference_target) {
+    } else if (r.kind === 'reference' && config.normalization.reference_target !== undefined && r.target !== config.normalization.reference_target) {
       errs.push({ severity: 'error', rule: 'run-reference-target', message: `reference run on target "${r.target}", but the reference target is "${config.normalization.reference_target}"`, hint: 'mark the run as sample, or fix its target', ...where, column: r.targetColumn });
     }
     const actual = listed.get(`${r.run}.csv`.toLowerCase());
@@ -110,7 +112,9 @@ export function ingest(input: IngestInput): IngestOutput {
   }
 
   const usableReference = log.runs.filter((r) => r.kind === 'reference' && !aside.has(r.run));
-  if (usableReference.length === 0) {
+  // internal-reference and absolute normalize without reference runs.
+  const needsReferenceRuns = config.normalization.method === 'reference-run' || config.normalization.method === 'monitor';
+  if (usableReference.length === 0 && needsReferenceRuns) {
     diagnostics.push({ severity: 'error', rule: 'series-no-reference-run', message: 'no usable reference run: the series cannot be normalized', file: input.runlog.file, stage: 'ingest', hint: `add runs of kind "reference" on target ${config.normalization.reference_target}` });
     for (const [, ds] of aside) diagnostics.push(...ds);
     return { ok: false, diagnostics };

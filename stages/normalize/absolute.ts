@@ -22,16 +22,15 @@ export interface AbsoluteInput {
  * Nothing but the charge integrator and the geometry:
  *   L = g · N_beam · ΔΩ_nom (1 + δΩ) / 10³  (sr),  N_beam = Q/(q e)
  * Inputs: g (charge, series class: the integrator's scale, u = charge_unc_rel) and δΩ (the
- * nominal solid angle's relative error, u = solid_angle_unc_rel; the budget has no name of its
- * own for it, so it is reported as `angle`, detector class, key `<detector>/solid angle`:
- * both describe the detector's geometry). Nothing cancels: this is the method with the largest
+ * nominal solid angle's relative error, u = solid_angle_unc_rel: solid_angle, detector class,
+ * key `<detector>`). Nothing cancels: this is the method with the largest
  * systematic uncertainty.
  */
 export function absoluteExposure(x: AbsoluteInput): RowNormalization {
   const beam = microCoulombToParticles(x.run.chargeUC, x.chargeState);
   const omega = x.solidAngleMsr;
   const exposure: MeasurementModel = {
-    inputs: [chargeScale(x.shared.series, x.shared.chargeUncRel), modelInput('angle', 'detector', `${x.detector}/solid angle`, 0, x.solidAngleUncRel)],
+    inputs: [chargeScale(x.shared.series, x.shared.chargeUncRel), modelInput('solid_angle', 'detector', x.detector, 0, x.solidAngleUncRel)],
     parts: [],
     evaluate<T>(v: readonly T[], _p: readonly T[], ops: ScalarOps<T>): T {
       return ops.scale(ops.mul(v[0]!, ops.add(ops.k(1), v[1]!)), (beam * omega) / 1000);

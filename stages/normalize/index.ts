@@ -10,9 +10,14 @@ import { referenceComposition } from './reference-nuclides.js';
 import { NON_RUTHERFORD_FLAG, referencePoint, runRelUnc } from './reference-point.js';
 import { seriesPeakPlanner, type SeriesPeakPlanner } from '../../pipeline/core/kinematics/series-peak-planner.js';
 import { onsetEnergyKeV } from '../../pipeline/core/physics/non-rutherford-onset.js';
+import type { RowNormalization } from '../../pipeline/core/normalization/row-normalization.js';
+import { sampleNormalizations } from './sample-normalizations.js';
+import { normalizingElement } from './normalizing-element.js';
 
 export { planReferenceWindow, referenceKey, type ReferenceWindowPlan } from './plan-reference-window.js';
 export { referenceComposition, type ReferenceComposition } from './reference-nuclides.js';
+export { normalizingElement } from './normalizing-element.js';
+export { planNormalizingWindows, type NormalizingWindows } from './plan-normalizing-windows.js';
 
 export interface NormalizeInput {
   config: SeriesConfig;
@@ -22,27 +27,44 @@ export interface NormalizeInput {
   sampleRuns: readonly RunRecord[];
   /** Reference run → detector → the measured reference peak and the live fraction. */
   measured: ReadonlyMap<string, ReadonlyMap<string, { peak: MeasuredPeak; live: LiveFraction }>>;
+  /**
+   * Sample run → detector → the normalizing element's peak measured in the sample spectrum and
+   * the live fraction (internal-reference: every detector; monitor: the monitor detector).
+   */
+  sampleMeasured?: ReadonlyMap<string, ReadonlyMap<string, { peak: MeasuredPeak; live: LiveFraction }>>;
   /** The series' peak planner (shared with measuring); default: a new one for the config. */
   planner?: SeriesPeakPlanner;
 }
 
 export interface NormalizeOutput {
+  /** The normalizing element ('' for absolute). */
   element: string;
   points: ReferencePoint[];
   detectors: DetectorNormalization[];
-  /** Sample run → detector → normalization (null: no usable reference for that detector). */
+  /** Sample run → detector → the bracketing summary (reference-run method with rule bracketing; empty otherwise). */
   applied: Map<string, Map<string, AppliedNormalization | null>>;
+  /** Sample run → detector → the exposure model of the configured method (null: that row cannot be normalized). */
+  rows: Map<string, Map<string, RowNormalization | null>>;
   diagnostics: Diagnostic[];
 }
 
 /**
- * normalize (method `reference-run`): each reference run × detector gives an effective solid
- * angle from the Rutherford yield of the reference element; reference runs of a detector
- * that disagree beyond their uncertainties, or an effective solid angle far from the nominal
- * one, are flagged; each sample run gets the bracketing normalization.
+ * normalize: with reference runs (methods reference-run and monitor) each reference run ×
+ * detector gives an effective solid angle from the Rutherford yield of the reference element;
+ * reference runs of a detector that disagree beyond their uncertainties, or an effective solid
+ * angle far from the nominal one, are flagged. Each sample run × detector then gets the
+ * exposure model of the configured method (sample-normalizations.ts; docs/normalization-and-uncertainties.md).
  */
 export function normalize(input: NormalizeInput): NormalizeOutput {
   const { config } = input;
+  const planner = input.planner ?? seriesPeakPlanner(config);
+  const method = config.normalization.method;
+  if (method === 'internal-reference' || method === 'absolute') {
+    const element = normalizingElement(config) ?? '';
+    const detectors = config.detectors.map((d) => ({ detector: d.id, nominalMsr: d.solid_angle_msr, meanMsr: null, chi2: 0, ndf: 0 }));
+    const s = sampleNormalizations({ config, planner, element, sampleRuns: input.sampleRuns, sampleMeasured: input.sampleMeasured, points: new Map() });
+    return { element, points: [], detectors, applied: new Map(), rows: s.rows, diagnostics: s.diagnostics };
+  }
   const projectile = nuclide(config.beam.projectile);
   const ref = referenceComposition(config);
   const diagnostics: Diagnostic[] = [];
@@ -50,7 +72,6 @@ export function normalize(input: NormalizeInput): NormalizeOutput {
   const detectors: DetectorNormalization[] = [];
   const byDetector = new Map<string, ReferencePoint[]>();
   const refTarget = config.targets.find((t) => t.id === config.normalization.reference_target)!;
-  const planner = input.planner ?? seriesPeakPlanner(config);
   const aboveOnset: ReferencePoint[] = [];
   for (const det of config.detectors) {
     const list: ReferencePoint[] = [];
@@ -111,11 +132,15 @@ export function normalize(input: NormalizeInput): NormalizeOutput {
     });
   }
   const applied = new Map<string, Map<string, AppliedNormalization | null>>();
-  const rules = new Map(config.detectors.map((d) => [d.id, prepareBracketing(byDetector.get(d.id) ?? [])]));
-  for (const s of input.sampleRuns) {
-    const per = new Map<string, AppliedNormalization | null>();
-    for (const det of config.detectors) per.set(det.id, rules.get(det.id)!(s));
-    applied.set(s.run, per);
+  if (method === 'reference-run' && config.normalization.reference_rule === 'bracketing') {
+    const rules = new Map(config.detectors.map((d) => [d.id, prepareBracketing(byDetector.get(d.id) ?? [])]));
+    for (const s of input.sampleRuns) {
+      const per = new Map<string, AppliedNormalization | null>();
+      for (const det of config.detectors) per.set(det.id, rules.get(det.id)!(s));
+      applied.set(s.run, per);
+    }
   }
-  return { element: ref.element, points, detectors, applied, diagnostics };
+  const s = sampleNormalizations({ config, planner, element: ref.element, sampleRuns: input.sampleRuns, sampleMeasured: input.sampleMeasured, points: byDetector, referenceRuns: input.referenceRuns });
+  diagnostics.push(...s.diagnostics);
+  return { element: ref.element, points, detectors, applied, rows: s.rows, diagnostics };
 }

@@ -59,8 +59,8 @@ export function sumNSigma<T>(ops: ScalarOps<T>, nuclides: readonly NormalizingNu
  *   ΔΩ = 10³ · Y (1 + ε) / (g N_beam · Σ_i n_i σ_i(E + δE, θ + δθ; δs) · f),  N_beam = Q/(q e)
  * with σ in cm²/sr. Inputs: Y (reference_counting), f (live_time), δE (beam_energy of the
  * run), δθ (angle of the detector), δs (screening), g (charge), ε (the reference runs' scatter
- * beyond their own uncertainties, `spreadRel`, named reference_counting with key
- * `<run>/<detector> spread`), t_l (reference_areal_density of each layer).
+ * beyond their own uncertainties, `spreadRel`: reference_spread, run class, key
+ * `<run>/<detector>`), t_l (reference_areal_density of each layer).
  */
 export function referenceSolidAngleModel(m: ReferenceMeasurement, shared: SharedUncertainties, spreadRel: number): MeasurementModel {
   const thick = new Map<string, number>();
@@ -71,7 +71,7 @@ export function referenceSolidAngleModel(m: ReferenceMeasurement, shared: Shared
     angleOffset(m.detector, m.angleUncDeg),
     screeningOffset(shared.series, shared.screeningUncFrac),
     chargeScale(shared.series, shared.chargeUncRel),
-    modelInput('reference_counting', 'run', `${m.run}/${m.detector} spread`, 0, spreadRel),
+    modelInput('reference_spread', 'run', `${m.run}/${m.detector}`, 0, spreadRel),
   ];
   for (const n of m.nuclides) {
     for (const l of n.layers) {

@@ -10,6 +10,11 @@ import type { ReportSpectrum } from './spectra/report-spectrum.js';
 import type { ReportRun, SummaryInput } from './summary-input.js';
 import { summaryHtml } from './summary-html.js';
 import { budgetFromColumns, type RowBudget } from './uncertainty-budget.js';
+import { UNCERTAINTY_BUDGET_COLUMNS, type BudgetTableRow } from '../../pipeline/core/tables/uncertainty-budget-columns.js';
+import { COVARIANCE_COLUMNS, type CovarianceTableRow } from '../../pipeline/core/tables/covariance-columns.js';
+import { COMBINED_COLUMNS, type CombinedTableRow } from '../../pipeline/core/tables/combined-columns.js';
+import { MONTE_CARLO_COLUMNS, type MonteCarloTableRow } from '../../pipeline/core/tables/monte-carlo-columns.js';
+import { DRIFT_QC_COLUMNS, FIT_COLUMNS, FIT_RESIDUAL_COLUMNS, type FitResidualRow, type FitRow } from './fits-columns.js';
 
 export { CROSS_SECTION_COLUMNS } from './cross-section-columns.js';
 export { NORMALIZATION_COLUMNS, QC_COLUMNS, YIELD_COLUMNS } from './audit-columns.js';
@@ -47,6 +52,20 @@ export interface ReportInput {
   budgets?: readonly RowBudget[];
   /** Write summary.html (vega loads only then). */
   html: boolean;
+  /**
+   * Issue 5 tables (docs/normalization-and-uncertainties.md): uncertainty_budget.arrow and
+   * combined.arrow always when given; covariance.arrow unless null (too many rows);
+   * monte_carlo.arrow with --mc only.
+   */
+  uncertainty?: {
+    budget: readonly BudgetTableRow[];
+    covariance: readonly CovarianceTableRow[] | null;
+    combined: readonly CombinedTableRow[];
+    monteCarlo: readonly MonteCarloTableRow[] | null;
+  };
+  /** Peak fits (method: fit): fits.arrow and fit_residuals.arrow are written only when given. */
+  fits?: readonly FitRow[];
+  fitResiduals?: readonly FitResidualRow[];
 }
 
 export interface OutputFile {
@@ -76,8 +95,19 @@ export async function report(input: ReportInput): Promise<{ files: OutputFile[] 
       ),
     },
     { name: 'yields.arrow', bytes: tableToIpcFile(buildTable(YIELD_COLUMNS, input.yields, meta('yields: one row per measured peak window'))) },
-    { name: 'qc.arrow', bytes: tableToIpcFile(buildTable(QC_COLUMNS, input.qc, meta('quality control: one row per run × detector'))) },
+    { name: 'qc.arrow', bytes: tableToIpcFile(buildTable(input.config.drift.mode === 'off' ? QC_COLUMNS : [...QC_COLUMNS.slice(0, -1), ...DRIFT_QC_COLUMNS, QC_COLUMNS[QC_COLUMNS.length - 1]!], input.qc, meta('quality control: one row per run × detector'))) },
   ];
+  if (input.fits !== undefined) {
+    files.push({ name: 'fits.arrow', bytes: tableToIpcFile(buildTable(FIT_COLUMNS, input.fits, meta('peak fits: one row per run × detector × fitted peak'))) });
+    files.push({ name: 'fit_residuals.arrow', bytes: tableToIpcFile(buildTable(FIT_RESIDUAL_COLUMNS, input.fitResiduals ?? [], meta('peak-fit residuals: one row per channel of each fit region'))) });
+  }
+  const u = input.uncertainty;
+  if (u !== undefined) {
+    files.push({ name: 'uncertainty_budget.arrow', bytes: tableToIpcFile(buildTable(UNCERTAINTY_BUDGET_COLUMNS, u.budget, meta('uncertainty budget: one entry per cross-section row × component (name, class, key), its contribution to dσ/dΩ_lab and σ/σ_R'))) });
+    if (u.covariance !== null) files.push({ name: 'covariance.arrow', bytes: tableToIpcFile(buildTable(COVARIANCE_COLUMNS, u.covariance, meta('covariance of dσ/dΩ_lab between cross-section rows i <= j (long form; absent pairs are 0)'))) });
+    files.push({ name: 'combined.arrow', bytes: tableToIpcFile(buildTable(COMBINED_COLUMNS, u.combined, meta('combined values: rows of one peak, lab angle and beam energy by the weighted mean'))) });
+    if (u.monteCarlo !== null) files.push({ name: 'monte_carlo.arrow', bytes: tableToIpcFile(buildTable(MONTE_CARLO_COLUMNS, u.monteCarlo, meta('Monte Carlo propagation (JCGM 101) per cross-section row, beside the first-order values'))) });
+  }
   if (input.html) {
     const m = input.manifest;
     const page: Omit<SummaryInput, 'charts'> = {

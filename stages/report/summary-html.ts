@@ -1,5 +1,6 @@
 import { escapeHtml as h } from '../../pipeline/core/text/escape-html.js';
 import type { RenderedChart, SummaryInput } from './summary-input.js';
+import { DENSE_PANEL_POINTS } from './charts/chart-config.js';
 import { chartFigure } from './html/html-table.js';
 import { budgetTable, crossSectionTable, diagnosticsSection, normalizationTable, provenanceSection } from './html/data-sections.js';
 import { overviewSection } from './html/overview-section.js';
@@ -36,7 +37,7 @@ export function summaryHtml(x: SummaryInput): string {
 <nav class="toc">${toc}</nav>
 ${overviewSection(x)}
 <section id="excitation"><h2>Excitation functions</h2>
-<p class="note">Per peak, one panel per detector. Dark bars: statistical standard uncertainty; light bars: statistical and systematic combined in quadrature.</p>
+<p class="note">Per peak, one panel per detector. Dark bars: statistical standard uncertainty; light bars: statistical and systematic combined in quadrature. A panel with more than ${DENSE_PANEL_POINTS} rows (more points than it is wide in pixels) is drawn as a line through every value with dark (statistical) and light (total) bands instead; its caption says so.</p>
 ${ch.excitation.length ? ch.excitation.map((e) => chartFigure(e.id, e.caption, e.svg)).join('\n') : '<p>No rows to plot.</p>'}
 </section>
 <section id="angular"><h2>Angular distributions</h2>

@@ -40,8 +40,19 @@ const median = (xs: number[]) => {
   return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
 };
 
-/** Median of each component's relative uncertainty (percent) per peak × detector, over the rows that have it. */
+const summaries = new WeakMap<readonly RowBudget[], BudgetBar[]>();
+
+/**
+ * Median of each component's relative uncertainty (percent) per peak × detector, over the rows
+ * that have it. Kept per budgets array (the page's chart and table both ask for it).
+ */
 export function summarizeBudget(budgets: readonly RowBudget[]): BudgetBar[] {
+  let bars = summaries.get(budgets);
+  if (bars === undefined) summaries.set(budgets, (bars = summarize(budgets)));
+  return bars;
+}
+
+function summarize(budgets: readonly RowBudget[]): BudgetBar[] {
   const groups = new Map<string, { peak: string; detector: string; component: string; values: number[] }>();
   for (const b of budgets) {
     for (const c of b.components) {

@@ -12,17 +12,20 @@ export interface CrossSectionPulls {
 /**
  * Pulls of reduced cross sections against the simulator's declared truth, row by row:
  *
- *   pull = (value − truth) / u,   u = hypot(stat, value · normalization_counting_rel_unc)
+ *   pull = (value − truth) / u,   u = hypot(stat, value · normalization_counting_rel_unc, value · u(f)/f)
  *
  * u holds only the parts the simulator randomizes: Poisson counting of the sample peak and its
- * background, the pulser's binomial live fraction (both in the statistical column), and the
- * reference runs' counting and live time (normalization_counting_rel_unc). The areal-density,
+ * background (the statistical column), the normalizing peaks' counting and the live fractions
+ * of other spectra (normalization_counting_rel_unc: reference runs, reference layer or monitor),
+ * and the pulser's binomial live fraction of the row's own spectrum, u(f)/f = live_fraction_unc /
+ * live_fraction (a run-class systematic in the budget since issue 5; leave it out with
+ * `ownLiveTime: false` where it cancels, as under internal-reference). The areal-density,
  * angle and beam-energy systematics are left out on purpose: the simulator generates counts
  * from the declared areal densities, angles and energies exactly, so those errors are not in
  * the data.
  * @param filter keep only rows for which this returns true (default: all)
  */
-export function crossSectionPulls(rows: readonly ArrowRow[], truth: ReadonlyMap<string, TruthCsvRow>, filter: (r: ArrowRow) => boolean = () => true): CrossSectionPulls {
+export function crossSectionPulls(rows: readonly ArrowRow[], truth: ReadonlyMap<string, TruthCsvRow>, filter: (r: ArrowRow) => boolean = () => true, options: { ownLiveTime?: boolean } = {}): CrossSectionPulls {
   const out: CrossSectionPulls = { lab: [], cm: [], ratio: [], unmatched: [] };
   for (const r of rows) {
     if (!filter(r)) continue;
@@ -32,7 +35,7 @@ export function crossSectionPulls(rows: readonly ArrowRow[], truth: ReadonlyMap<
       out.unmatched.push(key);
       continue;
     }
-    const normRel = Number(r.normalization_counting_rel_unc);
+    const normRel = Math.hypot(Number(r.normalization_counting_rel_unc), options.ownLiveTime === false ? 0 : Number(r.live_fraction_unc) / Number(r.live_fraction));
     const lab = Number(r.cross_section_lab_mb_per_sr);
     const cm = Number(r.cross_section_cm_mb_per_sr);
     const ratio = Number(r.ratio_to_rutherford);

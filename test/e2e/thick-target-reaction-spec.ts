@@ -3,12 +3,12 @@ import type { SimulationSpecInput } from '../../pipeline/simulate/simulation-spe
 /**
  * A simulation spec (invented scenario: the "Harlow Fen" deuteron beam on a thick carbon foil)
  * where energy loss matters and the peak of interest is a reaction product behind a foil:
- * 2H at 1.6–2.4 MeV on 1800e15 12C atoms/cm² (≈ 36 µg/cm²; the beam loses ≈ 50 keV across it,
- * so mid-depth is ≈ 25 keV below the beam energy), tilted 20°; the detectors sit behind a 2 µm
- * polyimide-like foil (C22H10N2O5, 280 µg/cm²) that every detected particle crosses. Peak of
- * interest: 12C(d,p0)13C (Q = +2722 keV from AME2020) with an invented CM cross section; the
- * reference is a thin gold film (its elastic deuterons also cross the foil). 9 energies × 3
- * detectors = 27 sample rows.
+ * 2H at 1.6–2.4 MeV on 8000e15 12C atoms/cm² (≈ 160 µg/cm²) tilted 20°; the beam loses ≈ 45 keV
+ * across it (NIST PSTAR at the same velocity), so mid-depth is ≈ 22 keV below the beam energy.
+ * The detectors sit behind a 2 µm polyimide-like foil (C22H10N2O5, 280 µg/cm²) that every
+ * detected particle crosses. Peak of interest: 12C(d,p0)13C (Q = +2722 keV from AME2020) with an
+ * invented CM cross section; the reference is a thin gold film (its elastic deuterons cross the
+ * foil too), measured after every sample run. 9 energies × 3 detectors = 27 sample rows.
  */
 export function thickTargetReactionSpec(): SimulationSpecInput {
   const foil = [{ composition: { C: 22, H: 10, N: 2, O: 5 }, areal_density_ug_per_cm2: 280 }];
@@ -40,8 +40,8 @@ export function thickTargetReactionSpec(): SimulationSpecInput {
     physics: { energy_loss: 'layers' },
     energies_keV: { from: 1600, to: 2400, step: 100 },
     beam_energy_unc_keV: 2,
-    schedule: { sample_target: 'c-thick', samples_per_energy: 1, reference_every: 3, start_at: '2026-06-02T08:00:00Z', changeover_s: 180 },
-    charge: { sample_uC: 150, reference_uC: 40, charge_reading_factor: 1, beam_current_nA: { sample: 100, reference: 40 } },
+    schedule: { sample_target: 'c-thick', samples_per_energy: 1, reference_every: 1, start_at: '2026-06-02T08:00:00Z', changeover_s: 180 },
+    charge: { sample_uC: 150, reference_uC: 80, charge_reading_factor: 1, beam_current_nA: { sample: 100, reference: 80 } },
     dead_time: { model: 'uniform', live_fraction_min: 0.9, live_fraction_max: 0.98 },
     calibrations: [
       {

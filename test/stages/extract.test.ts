@@ -6,7 +6,9 @@ import { seriesSchema, type PeakConfig, type SeriesConfig } from '../../pipeline
 import { liveFraction, type LiveFraction } from '../../pipeline/core/counting/live-fraction.js';
 import { planPeakWindow, type MeasuredPeak, type PeakWindow } from '../../pipeline/core/counting/peak-window.js';
 import type { NetCounts } from '../../pipeline/core/counting/net-counts.js';
-import type { AppliedNormalization } from '../../pipeline/core/model/result-rows.js';
+import type { RowNormalization } from '../../pipeline/core/normalization/row-normalization.js';
+import type { ScalarOps } from '../../pipeline/core/normalization/scalar-ops.js';
+import { modelInput } from '../../pipeline/core/normalization/shared-inputs.js';
 import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import { nuclide } from '../../pipeline/core/physics/nuclides.js';
 import { seriesPeakPlanner } from '../../pipeline/core/kinematics/series-peak-planner.js';
@@ -73,17 +75,39 @@ const LIVE: LiveFraction = liveFraction({ mode: 'pulser', pulserSent: 20000, pul
 /** ∂lnσ_R/∂θ of the gold reference at 150°, per degree, by central difference of the Darwin formula. */
 const dLnAuDTheta = (Math.log(darwinLabMbPerSr(2, 79, M1, 196.966570103, 2000, 150 + 1e-4)) - Math.log(darwinLabMbPerSr(2, 79, M1, 196.966570103, 2000, 150 - 1e-4))) / 2e-4;
 
-const NORM: AppliedNormalization = {
-  solidAngleMsr: 2.45,
-  referenceRuns: ['r001', 'r004'],
-  weights: [0.5, 0.5],
-  relCounting: 0.004,
-  relLive: 0.001,
-  relEnergy: 0.0025,
-  relAreal: 0.03,
-  dLnSigmaDThetaPerDeg: dLnAuDTheta,
-  flags: [],
-};
+/**
+ * A reference-run normalization written out by hand as an exposure model: L = N_beam ΔΩ with
+ * ΔΩ = 2.45 msr carrying relative errors 0.4 % (reference counting), 0.1 % (reference live
+ * time), 0.25 % (reference energy), 3 % (reference film) and the detector angle through
+ * ΔΩ ∝ 1/σ_Au(θ), for a run of 30 µC (the sample run of these tests).
+ */
+function stubNormalization(flags: string[] = []): RowNormalization {
+  const beam = 30e-6 / E_CHARGE_C;
+  const inputs = [
+    modelInput('reference_counting', 'run', 'r001/d01', 0, 0.004),
+    modelInput('live_time', 'run', 'r001/d01', 0, 0.001),
+    modelInput('beam_energy', 'run', 'r001', 0, 0.0025),
+    modelInput('reference_areal_density', 'series', 'au-ref/layer 1', 0, 0.03),
+    modelInput('angle', 'detector', 'd01', 0, 0.2),
+  ];
+  return {
+    method: 'reference-run',
+    exposure: {
+      inputs,
+      parts: [],
+      evaluate<T>(v: readonly T[], _p: readonly T[], ops: ScalarOps<T>): T {
+        let f = ops.add(ops.k(1), v[0]!);
+        for (let i = 1; i < 4; i++) f = ops.mul(f, ops.add(ops.k(1), v[i]!));
+        return ops.scale(ops.mul(f, ops.exp(ops.scale(v[4]!, -dLnAuDTheta))), (beam * 2.45) / 1000);
+      },
+    },
+    referenceRuns: ['r001', 'r004'],
+    weights: [0.5, 0.5],
+    solidAngleMsr: 2.45,
+    flags,
+  };
+}
+const NORM = stubNormalization();
 
 const N12C = 150e15 * 0.9893; // 12C atoms/cm²: 150e15 C × 0.9893 (IUPAC 2013 abundance of 12C)
 
@@ -164,17 +188,17 @@ describe('crossSectionRow: a hand case (README, "Cross sections"; 2000 keV 4He o
     expect(row.ratioToRutherford / (lab / sigmaR)).toBeCloseTo(1, 9);
   });
 
-  it('stat = √(var N)·perCount ⊕ σ·u(f)/f, the same relative part in CM and in σ/σ_R (JCGM 100:2008 §5.1.6)', () => {
-    const stat = Math.hypot(Math.sqrt(5350) * perCount, lab * (LIVE.unc / 0.9));
+  it('stat = √(var N)·perCount (the uncorrelated counting and background), the same relative part in CM and in σ/σ_R (JCGM 100:2008 §5.1.6)', () => {
+    const stat = Math.sqrt(5350) * perCount;
     expect(LIVE.unc).toBeCloseTo(Math.sqrt((0.9 * 0.1) / 20000), 15);
     expect(row.crossSectionLabStatMbPerSr / stat).toBeCloseTo(1, 12);
     expect(row.crossSectionCmStatMbPerSr / (stat * row.jacobianLabPerCm)).toBeCloseTo(1, 12);
     expect(row.ratioToRutherfordStat / (stat / sigmaR)).toBeCloseTo(1, 9);
   });
 
-  it('sys = σ · [u_n ⊕ (normalization counting ⊕ live ⊕ energy ⊕ reference areal) ⊕ ∂lnσ_ref/∂θ·u_θ] (JCGM 100:2008 §5.1.6)', () => {
+  it('sys = σ · [u_n ⊕ u(f)/f ⊕ (normalization counting ⊕ live ⊕ energy ⊕ reference areal) ⊕ ∂lnσ_ref/∂θ·u_θ] (JCGM 100:2008 §5.1.6)', () => {
     const normRel = Math.hypot(0.004, 0.001, 0.0025, 0.03);
-    const sys = lab * Math.hypot(0.05, normRel, dLnAuDTheta * 0.2);
+    const sys = lab * Math.hypot(0.05, LIVE.unc / 0.9, normRel, dLnAuDTheta * 0.2);
     expect(row.crossSectionLabSysMbPerSr / sys).toBeCloseTo(1, 12);
     expect(row.crossSectionCmSysMbPerSr / (sys * row.jacobianLabPerCm)).toBeCloseTo(1, 12);
     expect(row.normalizationCountingRelUnc).toBeCloseTo(Math.hypot(0.004, 0.001), 15);
@@ -186,7 +210,9 @@ describe('crossSectionRow: a hand case (README, "Cross sections"; 2000 keV 4He o
     const dLnCDE = (ln(2000.01, 150) - ln(1999.99, 150)) / 0.02;
     const normRel = Math.hypot(0.004, 0.001, 0.0025, 0.03);
     const ratio = lab / sigmaR;
-    const sys = ratio * Math.hypot(0.05, normRel, (dLnAuDTheta - dLnCDTheta) * 0.2, dLnCDE * 2);
+    // screening: σ_R·F with the correction 1 − F scaled by 1 + δs, u(δs) = normalization.screening_unc_frac (default 0.1)
+    const f = lecuyerF(2, 6, eCm);
+    const sys = ratio * Math.hypot(0.05, LIVE.unc / 0.9, normRel, (dLnAuDTheta - dLnCDTheta) * 0.2, dLnCDE * 2, (0.1 * (1 - f)) / f);
     expect(row.ratioToRutherfordSys / sys).toBeCloseTo(1, 6);
   });
 
@@ -255,7 +281,7 @@ describe('crossSectionRow: rows without a value', () => {
   });
 
   it('flags from the window, the normalization and the caller are merged, de-duplicated and sorted (README, "Flags")', () => {
-    const row = crossSectionRow(rowInput({ normalization: { ...NORM, flags: ['reference-one-sided'] }, extraFlags: ['no-live-time', 'reference-one-sided'] }));
+    const row = crossSectionRow(rowInput({ normalization: stubNormalization(['reference-one-sided']), extraFlags: ['no-live-time', 'reference-one-sided'] }));
     expect(row.flags).toEqual(['no-live-time', 'reference-one-sided']);
   });
 });

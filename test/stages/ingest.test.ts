@@ -521,3 +521,34 @@ describe('ingestSpectrum: the header must name exactly the series\' detectors (R
     expect(e[0]).toMatchObject({ file: 'spectra/r002.csv', line: 3, run: 'r002', stage: 'ingest' });
   });
 });
+
+describe('ingest: user stopping tables and stopping materials (README, "Thick targets, foils and reactions")', () => {
+  const TABLE = 'material,projectile,energy_keV,stopping_eV_per_1e15_atoms_per_cm2\nNi,4He,500,60\nNi,4He,1000,70\nNi,4He,2000,65\n';
+  const withPhysics = (physics: string, layerExtra = '') =>
+    SERIES_YAML.replace('areal_density_unc_rel: 0.05 }', `areal_density_unc_rel: 0.05${layerExtra} }`) + `physics: ${physics}\n`;
+  const run = (yaml: string, files: Record<string, string>) =>
+    ingest({ ...input({ yaml }), readFile: (rel) => (rel in files ? { file: rel, text: files[rel]! } : null) });
+
+  it('reads the listed table into the series (material → tables)', () => {
+    const out = run(withPhysics('{ stopping_tables: [stopping/ni.csv] }'), { 'stopping/ni.csv': TABLE });
+    expect(out.ok).toBe(true);
+    if (out.ok) expect([...(out.series.stoppingTables?.keys() ?? [])]).toEqual(['Ni']);
+  });
+  it('a missing table file stops the series (series-missing-file, on series.yaml)', () => {
+    const out = run(withPhysics('{ stopping_tables: [stopping/none.csv] }'), {});
+    expect(out.ok).toBe(false);
+    if (!out.ok) expect(out.diagnostics.map((d) => [d.rule, d.file])).toContainEqual(['series-missing-file', 'series.yaml']);
+  });
+  it('a bad row stops the series with its file and line (a dropped row would change the physics silently)', () => {
+    const out = run(withPhysics('{ stopping_tables: [stopping/ni.csv] }'), { 'stopping/ni.csv': `${TABLE}Ni,4He,abc,70\n` });
+    expect(out.ok).toBe(false);
+    if (!out.ok) expect(out.diagnostics.some((d) => d.file === 'stopping/ni.csv' && d.line === 5 && d.severity === 'error')).toBe(true);
+  });
+  it('a stopping_material that is neither a table nor a NIST material is one series error', () => {
+    const out = run(withPhysics('{ energy_loss: layers }', ', stopping_material: mylr'), {});
+    expect(out.ok).toBe(false);
+    if (!out.ok) expect(out.diagnostics.map((d) => d.rule)).toContain('series-unknown-stopping-material');
+    const good = run(withPhysics('{ energy_loss: layers }', ', stopping_material: mylar'), {});
+    expect(good.ok).toBe(true);
+  });
+});

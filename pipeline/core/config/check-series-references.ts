@@ -15,7 +15,7 @@ export interface ConfigIssue {
 
 /** The parts of a series configuration (series.yaml or a simulation spec) the checks read. */
 export type SeriesReferences = Pick<SeriesConfig, 'beam' | 'detectors' | 'targets' | 'peaks'> & {
-  normalization: Pick<SeriesConfig['normalization'], 'reference_target' | 'reference_element'>;
+  normalization: Pick<SeriesConfig['normalization'], 'reference_target' | 'reference_element'> & Partial<Pick<SeriesConfig['normalization'], 'method' | 'monitor_detector'>>;
 };
 
 function knownNuclide(name: string): boolean {
@@ -73,8 +73,20 @@ export function checkSeriesReferences(config: SeriesReferences): ConfigIssue[] {
       issues.push({ path: ['peaks', i, 'target_nuclide'], severity: 'warning', rule: 'series-peak-not-in-targets', message: `no target contains ${p.target_nuclide}; peak "${p.label}" will give no rows` });
     }
   });
+  const method = config.normalization.method ?? 'reference-run';
+  const needsReferenceTarget = method === 'reference-run' || method === 'monitor';
+  if (method === 'monitor') {
+    const m = config.normalization.monitor_detector;
+    if (m === undefined) error(['normalization', 'monitor_detector'], 'series-monitor-detector', 'method monitor needs normalization.monitor_detector, the detector whose reference-element yield normalizes each run', { expected: config.detectors.map((d) => d.id).join(', ') });
+    else if (!config.detectors.some((d) => d.id === m)) error(['normalization', 'monitor_detector'], 'series-monitor-detector', `monitor_detector "${m}" is not a detector id`, { expected: config.detectors.map((d) => d.id).join(', ') });
+  }
+  if (method === 'internal-reference' && !config.targets.some((t) => t.layers.some((l) => l.role === 'reference'))) {
+    error(['normalization', 'method'], 'series-no-reference-layer', 'method internal-reference needs a layer marked role: reference in the sample targets', { hint: 'add role: reference to the thin heavy layer of each sample target' });
+  }
   const ref = config.targets.find((t) => t.id === config.normalization.reference_target);
-  if (ref === undefined) {
+  if (config.normalization.reference_target === undefined) {
+    if (needsReferenceTarget) error(['normalization', 'reference_target'], 'series-unknown-target', `method ${method} needs normalization.reference_target, the target of the reference runs`, { expected: config.targets.map((t) => t.id).join(', ') });
+  } else if (ref === undefined) {
     error(['normalization', 'reference_target'], 'series-unknown-target', `reference_target "${config.normalization.reference_target}" is not a target id`, { expected: config.targets.map((t) => t.id).join(', ') });
   } else if (config.normalization.reference_element !== undefined) {
     const el = config.normalization.reference_element;

@@ -26,6 +26,7 @@ const layerFields = {
   composition: z.record(compositionKey, z.number().positive()).meta({ description: 'atom ratios by element or nuclide' }),
   areal_density_1e15_per_cm2: z.number().positive().optional().meta({ description: 'areal density', unit: '1e15 atoms/cm^2' }),
   areal_density_ug_per_cm2: z.number().positive().optional().meta({ description: 'areal density', unit: 'ug/cm^2' }),
+  stopping_material: z.string().min(1).optional().meta({ description: "stopping of the whole layer from this table: a user table's material name (physics.stopping_tables) or a NIST material (C-graphite, H2O-liquid, polyethylene, mylar, kapton, SiO2, Al2O3); default: from the composition" }),
 };
 
 export const layerSchema = z
@@ -64,22 +65,53 @@ export const peakSchema = z.strictObject({
   q_value_keV: z.number().optional().meta({ description: 'overrides Q computed from AME2020 masses and excitation_keV', unit: 'keV' }),
   ejectile: nuclideName.optional().meta({ description: 'the light outgoing particle b of A(a,b)B (default: the projectile)' }),
   detect: z.enum(['ejectile', 'recoil']).default('ejectile').meta({ description: 'which outgoing particle the detector sees: b (ejectile) or the residual B (recoil, e.g. elastic recoil detection)' }),
-  method: z.enum(['window']).default('window').meta({ description: 'how the peak area is measured' }),
+  method: z.enum(['window', 'fit']).default('window').meta({ description: 'how the peak area is measured: window = sum above a side-window background; fit = Poisson maximum-likelihood line-shape fit (docs/fitting-and-calibration.md)' }),
+  fit_group: id('fit group').optional().meta({ description: 'peaks (method: fit) sharing a fit_group are fitted together as one multiplet' }),
+});
+
+/** A calibration source: a mixed alpha source (lines from the shipped table) or a target whose elastic peaks are known from kinematics. */
+export const calibrationSourceSchema = z
+  .strictObject({
+    id: id('calibration source id'),
+    lines_from: z.array(nuclideName).min(1).optional().meta({ description: 'alpha emitters of a mixed source, e.g. [239Pu, 241Am, 244Cm] (lines from pipeline/core/spectrum/alpha-source-lines.ts)' }),
+    target: id('target id').optional().meta({ description: 'a target of series.yaml whose elastic peaks at the run\'s beam energy calibrate' }),
+  })
+  .refine((s) => (s.lines_from === undefined) !== (s.target === undefined), { message: 'give exactly one of lines_from (alpha source) or target (elastic peaks)' });
+
+export const calibrateSettingsSchema = z.strictObject({
+  degree: numberSetting({ default: 1, min: 1, max: 2, doc: 'polynomial degree of a fitted calibration (1 linear, 2 quadratic)' }),
+  search_threshold: numberSetting({ default: 5, min: 2, doc: 'peak-search significance threshold (smoothed second difference / its standard deviation)' }),
+  match_tolerance_keV: numberSetting({ default: 25, min: 0.1, unit: 'keV', doc: 'a found peak matches a known line within this distance through the trial calibration' }),
+  gain_range_rel: numberSetting({ default: 0.2, min: 0.001, max: 0.9, doc: 'trial gains are searched within this fraction of the current calibration\'s gain' }),
+});
+
+export const driftSchema = z.strictObject({
+  mode: enumSetting(['off', 'track', 'correct'] as const, { default: 'off', doc: 'gain drift: track = locate the tracking peak in every run and detector and report its shift; correct = also rescale the gain per run so the tracking peak sits where the calibration predicts' }),
+  tracking_peak: z.string().min(1).optional().meta({ description: 'label of the peak to track (default: the strongest elastic peak of each run)' }),
+  tolerance_keV: numberSetting({ default: 3, min: 0, unit: 'keV', doc: 'flag gain-drift where the tracking peak lies further than this from its predicted energy' }),
 });
 
 export const normalizationSchema = z.strictObject({
-  method: z.enum(['reference-run']).default('reference-run').meta({ description: 'normalization method' }),
-  reference_target: id('target id').meta({ description: 'the target whose yield follows the Rutherford cross section' }),
+  method: enumSetting(['reference-run', 'internal-reference', 'monitor', 'absolute'] as const, {
+    default: 'reference-run',
+    doc: 'reference-run = separate reference target runs; internal-reference = a role: reference layer in the sample target; monitor = one detector\'s Rutherford yield on the reference element in every run; absolute = charge × nominal solid angle (docs/normalization-and-uncertainties.md)',
+  }),
+  reference_target: id('target id').optional().meta({ description: 'the target whose yield follows the Rutherford cross section (required by reference-run and monitor)' }),
   reference_element: z
     .string()
     .regex(/^[A-Z][a-z]?$/)
     .optional()
     .meta({ description: 'element of the reference target whose elastic peak normalizes (default: the heaviest)' }),
   screening: enumSetting(['lecuyer', 'andersen', 'none'] as const, { default: 'lecuyer', doc: 'electron-screening correction of the Rutherford cross section' }),
-  reference_rule: enumSetting(['bracketing'] as const, {
+  reference_rule: enumSetting(['bracketing', 'nearest', 'series-mean'] as const, {
     default: 'bracketing',
-    doc: 'which reference runs normalize a sample run: bracketing = interpolate in time between the nearest before and after',
+    doc: 'which reference runs normalize a sample run (reference-run, monitor): bracketing = interpolate in time between the nearest before and after; nearest = the nearest in start time; series-mean = weighted mean of all of the detector\'s reference runs',
   }),
+  monitor_detector: id('detector id').optional().meta({ description: 'monitor method: the detector whose Rutherford yield on the reference element in the sample target normalizes every run' }),
+  reference_layer: enumSetting(['role'] as const, { default: 'role', doc: 'internal-reference: which layer of the sample target normalizes; role = the layer marked role: reference' }),
+  charge_unc_rel: numberSetting({ default: 0.02, min: 0, max: 1, doc: 'relative standard uncertainty of the charge integrator (enters where the charge does not cancel: absolute); common practice for a suppressed Faraday cup' }),
+  solid_angle_unc_rel: numberSetting({ default: 0.03, min: 0, max: 1, doc: 'relative standard uncertainty of the nominal solid angles (absolute method); common practice for a collimated detector' }),
+  screening_unc_frac: numberSetting({ default: 0.1, min: 0, max: 1, doc: 'relative standard uncertainty of the screening correction 1 − F (common practice, not a published figure; compare screening: lecuyer and andersen for your geometry)' }),
   outlier_pull: numberSetting({ default: 3, min: 1, doc: 'a reference run further than this many standard deviations from its detector mean is flagged' }),
   nominal_tolerance_rel: numberSetting({ default: 0.1, min: 0, doc: "flag a detector whose mean effective solid angle is further than this fraction from the nominal one" }),
 });
@@ -94,6 +126,17 @@ export const extractSettingsSchema = z.strictObject({
     unit: 'FWHM',
     doc: 'flag a peak whose centroid lies further than this from the expected position',
   }),
+  combine_energy_tolerance_keV: numberSetting({ default: 1, min: 0, unit: 'keV', doc: 'rows of one peak and lab angle whose beam energies lie within this of the lowest of their group are combined (combined.arrow)' }),
+  covariance_max_rows: numberSetting({ default: 3000, min: 0, doc: 'covariance.arrow is written when the series has at most this many rows (a shared series-wide component makes it dense: n(n+1)/2 entries)' }),
+  fit_region_fwhm: numberSetting({ default: 3, min: 1, max: 20, unit: 'FWHM', doc: 'a fit region reaches this far beyond the outermost expected peak of its group' }),
+  fit_background: enumSetting(['none', 'constant', 'linear', 'quadratic'] as const, { default: 'linear', doc: 'background polynomial under fitted peaks' }),
+  fit_step: enumSetting(['none', 'erfc'] as const, { default: 'none', doc: 'erfc = a smooth step under each fitted peak (Phillips & Marlow 1976)' }),
+  fit_positions: enumSetting(['tied', 'tied-gain', 'free'] as const, { default: 'tied', doc: 'tied = centroids of a group keep the expected energy differences through the run\'s calibration (one centroid fitted); tied-gain = the same with channels-per-keV fitted too; free = one centroid per peak' }),
+  fit_widths: enumSetting(['shared', 'free'] as const, { default: 'shared', doc: 'shared = one width, each peak scaled by its predicted FWHM; free = one width per peak' }),
+  fit_tail: enumSetting(['none', 'fixed', 'shared', 'free'] as const, { default: 'none', doc: 'low-energy exponential tail (Bortels & Collaers 1987): none, fixed at the values below, one shared fraction and length, or one per peak' }),
+  fit_tail_fraction: numberSetting({ default: 0.1, min: 0, max: 1, doc: 'tail fraction η (start or fixed value)' }),
+  fit_tail_length_fwhm: numberSetting({ default: 0.5, min: 0.01, max: 20, unit: 'FWHM', doc: 'tail length τ (start or fixed value)' }),
+  fit_flag_probability: numberSetting({ default: 0.001, min: 0, max: 0.5, doc: 'flag a fit whose deviance or residual-runs test has an upper-tail probability below this' }),
 });
 
 export const physicsSettingsSchema = z.strictObject({
@@ -125,6 +168,9 @@ export const seriesSchema = z.strictObject({
   extract: extractSettingsSchema.default(extractSettingsSchema.parse({})),
   physics: physicsSettingsSchema.default(physicsSettingsSchema.parse({})),
   report: reportSettingsSchema.default(reportSettingsSchema.parse({})),
+  calibration_sources: z.array(calibrationSourceSchema).default([]).meta({ description: 'sources that runs of kind calibration name as their target (xsred calibrate)' }),
+  calibrate: calibrateSettingsSchema.default(calibrateSettingsSchema.parse({})),
+  drift: driftSchema.default(driftSchema.parse({})),
 });
 
 export type LayerConfig = z.output<typeof layerSchema>;
@@ -137,6 +183,9 @@ export type PeakConfig = z.output<typeof peakSchema>;
 export type NormalizationConfig = z.output<typeof normalizationSchema>;
 export type ExtractSettings = z.output<typeof extractSettingsSchema>;
 export type SeriesConfig = z.output<typeof seriesSchema>;
+export type CalibrationSourceConfig = z.output<typeof calibrationSourceSchema>;
+export type CalibrateSettings = z.output<typeof calibrateSettingsSchema>;
+export type DriftSettings = z.output<typeof driftSchema>;
 
 /** Every tunable setting with a default (for the CLI help, the README table and configs/defaults.json). */
 export function seriesSettingRows(): SettingRow[] {
@@ -145,5 +194,7 @@ export function seriesSettingRows(): SettingRow[] {
     ...describeSettings('extract', extractSettingsSchema),
     ...describeSettings('physics', physicsSettingsSchema),
     ...describeSettings('report', reportSettingsSchema),
+    ...describeSettings('calibrate', calibrateSettingsSchema),
+    ...describeSettings('drift', driftSchema),
   ].filter((r) => r.default !== '');
 }

@@ -98,4 +98,15 @@ export interface MeasuredPeak {
   net: import('./net-counts.js').NetCounts | null;
   /** Centroid shift from the expected energy, keV (NaN when not measurable). */
   shiftKeV: number;
+  /** Present when the peak was fitted (method: fit): its multiplet, fit quality and area correlations with the group's other peaks. */
+  fit?: MeasuredFit;
+}
+
+/** Summary of the fit a fitted peak comes from (full results in fits.arrow). */
+export interface MeasuredFit {
+  groupKey: string;
+  converged: boolean;
+  deviancePerDof: number;
+  flags: string[];
+  correlations: { key: string; rho: number }[];
 }

@@ -83,7 +83,7 @@ export function peakPath(x: PeakPathInput): PeakPathResult {
   // Beam: to the front of the layer, its middle and its back.
   let e = x.beamEnergyKeV;
   let inVar = 0;
-  const slow = (p: Nuclide, s: Slab, fraction: number, cos: number, eIn: number) => slowing.slowDown(p, s.composition, (s.atomsPerCm2 * fraction) / cos, eIn);
+  const slow = (p: Nuclide, s: Slab, fraction: number, cos: number, eIn: number) => slowing.slowDown(p, s.composition, (s.atomsPerCm2 * fraction) / cos, eIn, s.material);
   if (x.targetEnergyLoss) {
     for (let i = 0; i < x.layerIndex; i++) {
       const r = slow(x.projectile, x.layers[i]!, 1, cosIn, e);

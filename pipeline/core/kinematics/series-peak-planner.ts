@@ -1,9 +1,9 @@
 import type { DetectorConfig, SeriesConfig, TargetConfig } from '../config/series-schema.js';
-import { naturalIsotopes, nuclide, parseNuclideName } from '../physics/nuclides.js';
+import { nuclide, parseNuclideName } from '../physics/nuclides.js';
 import type { UserStoppingTables } from '../physics/stopping/user-stopping-table.js';
 import { resolveTarget } from '../model/resolve-target.js';
 import { kinematicsForReaction } from './kinematics-for-reaction.js';
-import { planTargetPeaks, type TargetPeakPlan } from './plan-target-peaks.js';
+import { prepareTargetPeaks, type TargetPeakPlan } from './plan-target-peaks.js';
 import type { KinematicsAt } from './peak-path.js';
 import type { PeakReactionSpec, Reaction } from './reaction-of-peak.js';
 import { stoppingSlowingModel } from './stopping-slowing-model.js';
@@ -35,38 +35,25 @@ export function seriesPeakPlanner(config: SeriesConfig, userTables?: UserStoppin
   };
   const ctx = { projectile, physics: config.physics, slowing: needsSlowing ? stoppingSlowingModel(userTables) : null, kinematicsFor };
   const sampleSpecs: PeakReactionSpec[] = config.peaks;
-  const memo = new Map<string, TargetPeakPlan>();
-  const cached = (key: string, make: () => TargetPeakPlan) => {
-    let plan = memo.get(key);
-    if (plan === undefined) memo.set(key, (plan = make()));
+  // Prepared per (kind, target, detector): reactions, kinematics, layers; then memoized per beam energy.
+  const prepared = new Map<string, { plan: (e: number) => TargetPeakPlan; byEnergy: Map<number, TargetPeakPlan> }>();
+  const planFor = (key: string, specs: () => readonly PeakReactionSpec[], target: TargetConfig, detector: DetectorConfig, e: number): TargetPeakPlan => {
+    let p = prepared.get(key);
+    if (p === undefined) prepared.set(key, (p = { plan: prepareTargetPeaks(ctx, target, detector, specs()), byEnergy: new Map() }));
+    let plan = p.byEnergy.get(e);
+    if (plan === undefined) p.byEnergy.set(e, (plan = p.plan(e)));
     return plan;
   };
-  const referenceSpecs = new Map<string, PeakReactionSpec[]>();
-  const elasticSpecs = new Map<string, PeakReactionSpec[]>();
   return {
     kinematicsFor,
-    samplePeaks: (target, detector, e) => cached(`s\t${target.id}\t${detector.id}\t${e}`, () => planTargetPeaks(ctx, target, detector, sampleSpecs, e)),
+    samplePeaks: (target, detector, e) => planFor(`s\t${target.id}\t${detector.id}`, () => sampleSpecs, target, detector, e),
     elasticPeaks: (target, detector, e) =>
-      cached(`e\t${target.id}\t${detector.id}\t${e}`, () => {
-        let specs = elasticSpecs.get(target.id);
-        if (specs === undefined) {
-          const names = [...new Set(resolveTarget(target).map((r) => r.nuclide))];
-          elasticSpecs.set(target.id, (specs = names.map((n) => ({ label: `${n} elastic`, target_nuclide: n, excitation_keV: 0, detect: 'ejectile' as const }))));
-        }
-        return planTargetPeaks(ctx, target, detector, specs, e);
-      }),
+      planFor(`e\t${target.id}\t${detector.id}`, () => [...new Set(resolveTarget(target).map((r) => r.nuclide))].map((n) => ({ label: `${n} elastic`, target_nuclide: n, excitation_keV: 0, detect: 'ejectile' as const })), target, detector, e),
     referencePeaks: (target, element, detector, e) =>
-      cached(`r\t${target.id}\t${element}\t${detector.id}\t${e}`, () => {
-        let specs = referenceSpecs.get(element);
-        if (specs === undefined) {
-          specs = naturalIsotopes(element).map((i) => ({ label: referencePeakLabel(element, i.nuclide.name), target_nuclide: i.nuclide.name, excitation_keV: 0, detect: 'ejectile' as const }));
-          // An isotope named in the composition (e.g. an enriched 13C layer) is planned too.
-          for (const l of target.layers) for (const k of Object.keys(l.composition)) {
-            if (parseNuclideName(k)?.symbol === element && !specs.some((s) => s.target_nuclide === k)) specs.push({ label: referencePeakLabel(element, k), target_nuclide: k, excitation_keV: 0, detect: 'ejectile' });
-          }
-          referenceSpecs.set(element, specs);
-        }
-        return planTargetPeaks(ctx, target, detector, specs, e);
-      }),
+      planFor(`r\t${target.id}\t${element}\t${detector.id}`, () => {
+        // The element's isotopes as the target holds them (natural ones, and any named nuclide, e.g. an enriched 13C layer).
+        const names = [...new Set(resolveTarget(target).map((r) => r.nuclide))].filter((n) => parseNuclideName(n)?.symbol === element);
+        return names.map((n) => ({ label: referencePeakLabel(element, n), target_nuclide: n, excitation_keV: 0, detect: 'ejectile' as const }));
+      }, target, detector, e),
   };
 }

@@ -4,6 +4,8 @@ import type { Nuclide } from '../physics/nuclides.js';
 export interface Slab {
   composition: Readonly<Record<string, number>>;
   atomsPerCm2: number;
+  /** A named stopping table for the whole slab (user table or NIST material); default: from the composition. */
+  material?: string | undefined;
 }
 
 export type SlowDownResult =
@@ -17,5 +19,5 @@ export type SlowDownResult =
  * @param pathAtomsPerCm2 atoms/cm² along the particle's path (slab areal density / |cos| of the path angle)
  */
 export interface SlowingModel {
-  slowDown(particle: Nuclide, composition: Readonly<Record<string, number>>, pathAtomsPerCm2: number, energyInKeV: number): SlowDownResult;
+  slowDown(particle: Nuclide, composition: Readonly<Record<string, number>>, pathAtomsPerCm2: number, energyInKeV: number, material?: string): SlowDownResult;
 }

@@ -9,10 +9,10 @@ import type { SlowingModel } from './slowing-model.js';
  * unsupported particle, a particle that stops) comes back as its reason, never an extrapolation.
  */
 export function stoppingSlowingModel(userTables?: UserStoppingTables): SlowingModel {
-  const options = userTables === undefined ? {} : { userTables };
+  const base = userTables === undefined ? {} : { userTables };
   return {
-    slowDown(particle, composition, pathAtomsPerCm2, energyInKeV) {
-      const r = slowDown(particle, composition, pathAtomsPerCm2 / 1e15, energyInKeV, 1, options);
+    slowDown(particle, composition, pathAtomsPerCm2, energyInKeV, material) {
+      const r = slowDown(particle, composition, pathAtomsPerCm2 / 1e15, energyInKeV, 1, material === undefined ? base : { ...base, material });
       if (!r.ok) return { ok: false, reason: r.reason };
       return { ok: true, energyOutKeV: r.energyOutKeV, stragglingKeV2: r.stragglingKeV2 };
     },

@@ -39,13 +39,23 @@ export interface ModelEstimate {
 }
 
 const identity = (c: { name: string; class: string; key: string }) => `${c.class}\u0000${c.name}\u0000${c.key}`;
+/** Identities of inputs, computed once per input object (a part's inputs are met by every row that uses it). */
+const identities = new WeakMap<ModelInput, string>();
 /** A shared input is one quantity per (name, class, key); an uncorrelated one is its own object. */
-const leafId = (inp: ModelInput): string | ModelInput => (inp.class === 'uncorrelated' ? inp : identity(inp));
+const leafId = (inp: ModelInput): string | ModelInput => {
+  if (inp.class === 'uncorrelated') return inp;
+  let id = identities.get(inp);
+  if (id === undefined) identities.set(inp, (id = identity(inp)));
+  return id;
+};
 
 interface Estimate {
   value: number;
-  /** Leaf → (∂y/∂leaf)·u(leaf). */
-  terms: Map<string | ModelInput, { input: ModelInput; value: number; abs: number; paths: number }>;
+  /** Leaf terms (∂y/∂leaf)·u(leaf), in parallel arrays (no object per term: rows are many). */
+  inputs: ModelInput[];
+  values: number[];
+  abs: number[];
+  paths: number[];
   components: UncertaintyComponent[];
 }
 
@@ -75,20 +85,25 @@ function estimate(model: MeasurementModel, cache: EstimateCache): Estimate {
   const x: Dual[] = model.inputs.map((inp, i) => dualVariable(inp.value, i, slots));
   const p: Dual[] = parts.map((e, j) => dualVariable(e.value, nOwn + j, slots));
   const y = model.evaluate(x, p, dualOps(slots));
-  const terms: Estimate['terms'] = new Map();
+  const index = new Map<string | ModelInput, number>();
+  const out: Estimate = { value: y.value, inputs: [], values: [], abs: [], paths: [], components: [] };
   const addTerm = (input: ModelInput, value: number, abs: number, paths: number) => {
     const id = leafId(input);
-    const t = terms.get(id);
-    if (t === undefined) {
-      terms.set(id, { input, value, abs, paths });
+    const k = index.get(id);
+    if (k === undefined) {
+      index.set(id, out.inputs.push(input) - 1);
+      out.values.push(value);
+      out.abs.push(abs);
+      out.paths.push(paths);
       return;
     }
-    if (t.input.value !== input.value || t.input.standardUncertainty !== input.standardUncertainty) {
-      throw new RangeError(`input "${input.name}" (${input.class} "${input.key}") appears with two estimates (${t.input.value} ± ${t.input.standardUncertainty} and ${input.value} ± ${input.standardUncertainty}); one shared quantity has one value`);
+    const seen = out.inputs[k]!;
+    if (seen.value !== input.value || seen.standardUncertainty !== input.standardUncertainty) {
+      throw new RangeError(`input "${input.name}" (${input.class} "${input.key}") appears with two estimates (${seen.value} ± ${seen.standardUncertainty} and ${input.value} ± ${input.standardUncertainty}); one shared quantity has one value`);
     }
-    t.value += value;
-    t.abs += abs;
-    t.paths += paths;
+    out.values[k]! += value;
+    out.abs[k]! += abs;
+    out.paths[k]! += paths;
   };
   model.inputs.forEach((inp, i) => {
     const u = inp.standardUncertainty;
@@ -98,18 +113,19 @@ function estimate(model: MeasurementModel, cache: EstimateCache): Estimate {
   });
   parts.forEach((e, j) => {
     const dy = y.tangent[nOwn + j]!;
-    for (const t of e.terms.values()) addTerm(t.input, dy * t.value, Math.abs(dy) * t.abs, t.paths);
+    const ady = Math.abs(dy);
+    for (let t = 0; t < e.inputs.length; t++) addTerm(e.inputs[t]!, dy * e.values[t]!, ady * e.abs[t]!, e.paths[t]!);
   });
-  const components: UncertaintyComponent[] = [];
-  for (const t of terms.values()) {
-    if (t.input.standardUncertainty === 0) continue;
-    if (t.paths > 1 && Math.abs(t.value) <= 1e-12 * t.abs) continue;
-    const c: UncertaintyComponent = { name: t.input.name, class: t.input.class, key: t.input.key, value: t.value };
+  for (let t = 0; t < out.inputs.length; t++) {
+    const input = out.inputs[t]!;
+    if (input.standardUncertainty === 0) continue;
+    const v = out.values[t]!;
+    if (out.paths[t]! > 1 && Math.abs(v) <= 1e-12 * out.abs[t]!) continue;
+    const c: UncertaintyComponent = { name: input.name, class: input.class, key: input.key, value: v };
     checkComponent(c);
-    components.push(c);
+    out.components.push(c);
   }
-  components.sort(componentOrder);
-  const out: Estimate = { value: y.value, terms, components };
+  out.components.sort(componentOrder);
   cache.set(model, out);
   return out;
 }

@@ -9,6 +9,7 @@ export const COMPONENT_NAMES = [
   'counting',
   'background',
   'reference_counting',
+  'reference_spread',
   'reference_areal_density',
   'sample_areal_density',
   'areal_density_ratio',
@@ -17,6 +18,7 @@ export const COMPONENT_NAMES = [
   'screening',
   'beam_energy',
   'angle',
+  'solid_angle',
   'calibration',
 ] as const;
 

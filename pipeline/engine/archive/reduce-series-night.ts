@@ -17,7 +17,7 @@ import { ledgerMeasureCache, pruneMeasureCache } from './measure-cache.js';
 import type { NightContext, SeriesNightResult } from './night-context.js';
 import { seriesInputFiles } from './series-input-files.js';
 import { verifyVersion } from './verify-version.js';
-import { buildDir, nextVersionName, publishVersion, pruneVersions, readCurrent, removeLeftovers, versionDir, writeCurrent } from './version-store.js';
+import { buildDir, nextVersionName, publishVersion, pruneVersions, readCurrent, removeLeftovers, switchCurrent, versionDir } from './version-store.js';
 
 const sha = (s: string) => createHash('sha256').update(s).digest('hex');
 const noRuns = { total: 0, reduced: 0, reused: 0, measured: 0, setAside: 0, pending: 0 };
@@ -30,7 +30,8 @@ const noRuns = { total: 0, reduced: 0, reused: 0, measured: 0, setAside: 0, pend
  *     the last reduction, whose version is still current → nothing to do (`unchanged`, no
  *     spectrum read);
  *  3. otherwise reduce into a hidden build folder, measured results of unchanged runs from the
- *     ledger, read the tables back, rename the folder to the next version, switch `current`;
+ *     ledger, read the tables back, rename the folder to the next version (its version.json
+ *     names the one it replaces), then swap the `current` link;
  *  4. record the reduction and each run's input hash and outcome in one transaction; a run is
  *     `reduced` when its input hash (own inputs and its normalizing reference runs) differs from
  *     the last reduction's, `reused` otherwise.
@@ -108,9 +109,9 @@ export async function reduceSeriesNight(ctx: NightContext, loc: SeriesLocation, 
       ? changesSincePrevious({ version: previous, crossSectionsIpc: readFileSync(join(versionDir(seriesOut, previous), 'cross_sections.arrow')) }, { version, table: arrow.tableFromIPC(readFileSync(join(build, 'cross_sections.arrow'))) })
       : null;
     writeFileAtomic(join(build, 'changes.json'), new TextEncoder().encode(`${JSON.stringify(changes, null, 2)}\n`));
-    publishVersion(seriesOut, build, version);
+    publishVersion(seriesOut, build, version, previous, ctx.now());
     build = null;
-    writeCurrent(seriesOut, { version, previous, switched_at: ctx.now().toISOString() });
+    switchCurrent(seriesOut, version);
 
     // 4. ledger
     const detail = r.detail;

@@ -1,18 +1,28 @@
-import { closeSync, existsSync, fsyncSync, mkdirSync, openSync, readdirSync, readFileSync, renameSync, rmSync } from 'node:fs';
+import { closeSync, existsSync, fsyncSync, lstatSync, mkdirSync, openSync, readdirSync, readFileSync, readlinkSync, renameSync, rmSync, symlinkSync } from 'node:fs';
 import { join } from 'node:path';
 import { writeFileAtomic } from '../atomic-write.js';
 
 /**
  * Versioned outputs of one series: `<out-root>/<series>/versions/<V>/` (V = `v` + a 6-digit
- * counter), built in a hidden folder, renamed into place when complete, and a pointer file
- * `<out-root>/<series>/current` (JSON: version and the one it replaced) replaced atomically.
+ * counter), built in a hidden folder, renamed into place when complete, and a relative symbolic
+ * link `<out-root>/<series>/current -> versions/<V>` made under a temporary name and renamed
+ * over the old link (atomic on POSIX). Which version a version replaced is kept in its own
+ * `version.json`, written before the folder is published.
  */
 export interface CurrentPointer {
   version: string;
+  /** The version that was current when this one was published (from its version.json). */
   previous: string | null;
-  switched_at: string;
 }
 
+/** `versions/<V>/version.json`: the version's name, the one it replaced, when it was published. */
+export interface VersionRecord {
+  version: string;
+  previous: string | null;
+  published_at: string;
+}
+
+export const VERSION_RECORD = 'version.json';
 const VERSION = /^v(\d{6})$/;
 export const versionsDir = (seriesOut: string) => join(seriesOut, 'versions');
 export const versionDir = (seriesOut: string, version: string) => join(seriesOut, 'versions', version);
@@ -40,18 +50,55 @@ export function nextVersionName(seriesOut: string): string {
   return `v${String(n).padStart(6, '0')}`;
 }
 
-export function readCurrent(seriesOut: string): CurrentPointer | null {
+/** The version named by a link target `versions/<V>` (null for anything else). */
+export function versionOfLink(target: string): string | null {
+  const m = /^versions\/(v\d{6})\/?$/.exec(target);
+  return m ? m[1]! : null;
+}
+
+/** The version record of a published version (null when missing or unreadable). */
+export function readVersionRecord(seriesOut: string, version: string): VersionRecord | null {
   try {
-    const v = JSON.parse(readFileSync(join(seriesOut, 'current'), 'utf8')) as Partial<CurrentPointer>;
-    return typeof v.version === 'string' && VERSION.test(v.version) ? { version: v.version, previous: v.previous ?? null, switched_at: String(v.switched_at ?? '') } : null;
+    const v = JSON.parse(readFileSync(join(versionDir(seriesOut, version), VERSION_RECORD), 'utf8')) as Partial<VersionRecord>;
+    const previous = typeof v.previous === 'string' && VERSION.test(v.previous) ? v.previous : null;
+    return v.version === version ? { version, previous, published_at: String(v.published_at ?? '') } : null;
   } catch {
     return null;
   }
 }
 
-/** Replaces the pointer: temp file + fsync + rename, then fsync of the folder. */
-export function writeCurrent(seriesOut: string, pointer: CurrentPointer): void {
-  writeFileAtomic(join(seriesOut, 'current'), new TextEncoder().encode(`${JSON.stringify(pointer, null, 2)}\n`));
+/**
+ * The current version: `current` must be a symbolic link to `versions/<V>` (relative) whose
+ * folder exists; anything else (no link, a plain file, a link elsewhere) reads as none.
+ */
+export function readCurrent(seriesOut: string): CurrentPointer | null {
+  const link = join(seriesOut, 'current');
+  try {
+    if (!lstatSync(link).isSymbolicLink()) return null;
+    const version = versionOfLink(readlinkSync(link));
+    if (version === null || !existsSync(versionDir(seriesOut, version))) return null;
+    return { version, previous: readVersionRecord(seriesOut, version)?.previous ?? null };
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * Makes `version` current: a new relative link `versions/<V>` under a temporary name
+ * (`.current.<pid>.tmp`), renamed over `current` (atomic on POSIX: a reader sees the old link or
+ * the new one), then fsync of the folder so the swap survives a crash of the machine.
+ */
+export function switchCurrent(seriesOut: string, version: string): void {
+  if (!VERSION.test(version) || !existsSync(versionDir(seriesOut, version))) throw new Error(`${versionDir(seriesOut, version)}: no such version to make current`);
+  const tmp = join(seriesOut, `.current.${process.pid}.tmp`);
+  rmSync(tmp, { force: true });
+  symlinkSync(`versions/${version}`, tmp);
+  try {
+    renameSync(tmp, join(seriesOut, 'current'));
+  } catch (e) {
+    rmSync(tmp, { force: true });
+    throw e;
+  }
   fsyncDir(seriesOut);
 }
 
@@ -63,8 +110,13 @@ export function buildDir(seriesOut: string, version: string): string {
   return dir;
 }
 
-/** Renames a finished build folder to its version name (atomic) and makes that durable. */
-export function publishVersion(seriesOut: string, built: string, version: string): string {
+/**
+ * Writes the version record (version.json: the version and the one it replaces) into a finished
+ * build folder, renames the folder to its version name (atomic) and makes that durable.
+ */
+export function publishVersion(seriesOut: string, built: string, version: string, previous: string | null, publishedAt: Date = new Date()): string {
+  const record: VersionRecord = { version, previous, published_at: publishedAt.toISOString() };
+  writeFileAtomic(join(built, VERSION_RECORD), new TextEncoder().encode(`${JSON.stringify(record, null, 2)}\n`));
   fsyncDir(built);
   const target = versionDir(seriesOut, version);
   renameSync(built, target);

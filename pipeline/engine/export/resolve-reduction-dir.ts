@@ -1,19 +1,23 @@
-import { existsSync, realpathSync, statSync } from 'node:fs';
-import { join } from 'node:path';
+import { existsSync, lstatSync, readlinkSync, realpathSync, statSync } from 'node:fs';
+import { basename, join, resolve } from 'node:path';
 import type { Diagnostic } from '../../core/diagnostics/diagnostic.js';
 
 /**
  * The folder holding one reduction's files: `<out>/<series>` itself (what `xsred reduce`
  * writes), or, for an archive series folder, the version its `current` link points to
- * (`<series>/current → versions/<V>/`). The link is resolved once, so a swap during an export
- * does not mix two versions.
+ * (`<series>/current → versions/<V>/`, a symbolic link). The link is read once and the export
+ * reads the folder it named, so a swap during an export does not mix two versions.
  */
 export function resolveReductionDir(dir: string): { dir: string; version?: string } | { diagnostic: Diagnostic } {
   const current = join(dir, 'current');
-  if (existsSync(current)) {
-    const real = realpathSync(current);
-    if (existsSync(join(real, 'cross_sections.arrow'))) return { dir: real, version: real.split(/[\\/]/).filter(Boolean).pop() };
-    return { diagnostic: { severity: 'error', stage: 'report', rule: 'export-current-incomplete', file: current, message: `${current} points to ${real}, which holds no cross_sections.arrow`, hint: 'let the running reduction finish, or point current at a complete version' } };
+  const link = existsSync(dir) && statSync(dir).isDirectory() ? lstatSync(current, { throwIfNoEntry: false }) : undefined;
+  if (link !== undefined) {
+    const fail = (rule: string, message: string, hint: string): { diagnostic: Diagnostic } => ({ diagnostic: { severity: 'error', stage: 'report', rule, file: current, message, expected: 'current → versions/<V> (a symbolic link)', hint } });
+    if (!link.isSymbolicLink()) return fail('export-current-not-a-link', `${current} is not a symbolic link`, 'an out-root written by an older xsred keeps a pointer file: run xsred nightly or rereduce once to replace it by the link');
+    const target = readlinkSync(current);
+    const real = resolve(dir, target);
+    if (!existsSync(join(real, 'cross_sections.arrow'))) return fail('export-current-incomplete', `${current} points to ${target}, which holds no cross_sections.arrow`, 'let the running reduction finish, or point current at a complete version');
+    return { dir: realpathSync(real), version: basename(real) };
   }
   if (existsSync(join(dir, 'cross_sections.arrow'))) return { dir };
   const what = existsSync(dir) ? (statSync(dir).isDirectory() ? 'a folder without cross_sections.arrow or a current link' : 'not a folder') : 'missing';

@@ -19,6 +19,13 @@ export function errorBarLayers(x: object, yTitle: string, color: object | undefi
   ];
 }
 
+/**
+ * Above this many points in one panel (210 px wide) markers overlap: a panel is drawn as a line
+ * through every value with shaded uncertainty bands instead of a point and two bars per row
+ * (densePanelsSvg).
+ */
+export const DENSE_PANEL_POINTS = 200;
+
 /** Value with its statistical and total (stat ⊕ sys) bounds, as the error-bar layers read them. */
 export function withBars(v: number, stat: number, sys: number) {
   const s = Number.isFinite(stat) ? stat : 0;

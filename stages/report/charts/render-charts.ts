@@ -1,7 +1,9 @@
 import type { SummaryInput, RenderedChart, RenderedCharts } from '../summary-input.js';
 import { angularChartSpec, angularEnergies } from './angular-chart.js';
 import { budgetChartSpec } from './budget-chart.js';
-import { excitationChartSpec } from './excitation-chart.js';
+import { densePanelsSvg } from './dense-panels-svg.js';
+import { EXCITATION_X_TITLE, excitationChartSpec, excitationPoints, excitationYTitle, isDense, maxPanelPoints, type ExcitationQuantity } from './excitation-chart.js';
+import { DENSE_PANEL_POINTS } from './chart-config.js';
 import { normalizationChartSpec } from './normalization-chart.js';
 import { renderSvg, SvgRenderer } from './render-svg.js';
 import { runTrendChartSpec, type RunTrendPoint } from './run-trend-chart.js';
@@ -12,15 +14,40 @@ async function chart(id: string, caption: string, spec: object | null): Promise<
   return spec === null ? null : { id, caption, svg: await renderSvg(spec) };
 }
 
+/**
+ * The excitation functions, two charts per peak (σ/σ_R, dσ/dΩ lab): one compiled vega view per
+ * quantity, fed each peak's points (compiling is most of what a small chart costs); data sets
+ * with more points a panel than pixels are drawn directly (densePanelsSvg).
+ */
+async function excitationCharts(x: Omit<SummaryInput, 'charts'>): Promise<RenderedChart[]> {
+  const renderers = new Map<string, SvgRenderer>();
+  const out: RenderedChart[] = [];
+  const what = { ratio: 'σ/σ_R', lab: 'dσ/dΩ (lab)' } as const;
+  try {
+    for (const p of x.config.peaks) {
+      const rows = x.rows.filter((r) => r.peak === p.label);
+      for (const quantity of ['ratio', 'lab'] as ExcitationQuantity[]) {
+        const points = excitationPoints(rows, quantity);
+        if (points.length === 0) continue;
+        if (isDense(points)) {
+          const form = ` (up to ${maxPanelPoints(points)} rows a panel, more than ${DENSE_PANEL_POINTS}: a line through every value with shaded statistical and total uncertainty bands in place of points and bars)`;
+          out.push({ id: `excitation-${quantity}:${p.label}`, caption: `${p.label}: ${what[quantity]} against beam energy, per detector${form}`, svg: densePanelsSvg(points, EXCITATION_X_TITLE, excitationYTitle(quantity)) });
+          continue;
+        }
+        let r = renderers.get(quantity);
+        if (r === undefined) renderers.set(quantity, (r = new SvgRenderer(excitationChartSpec(quantity))));
+        out.push({ id: `excitation-${quantity}:${p.label}`, caption: `${p.label}: ${what[quantity]} against beam energy, per detector`, svg: await r.render({ points }) });
+      }
+    }
+  } finally {
+    for (const r of renderers.values()) r.finalize();
+  }
+  return out;
+}
+
 /** Renders every chart of the summary page (vega-lite → SVG in Node). */
 export async function renderCharts(x: Omit<SummaryInput, 'charts'>): Promise<RenderedCharts> {
-  const excitation: RenderedChart[] = [];
-  for (const p of x.config.peaks) {
-    const rows = x.rows.filter((r) => r.peak === p.label);
-    const lab = await chart(`excitation-lab:${p.label}`, `${p.label}: dσ/dΩ (lab) against beam energy, per detector`, excitationChartSpec(rows, 'lab'));
-    const ratio = await chart(`excitation-ratio:${p.label}`, `${p.label}: σ/σ_R against beam energy, per detector`, excitationChartSpec(rows, 'ratio'));
-    for (const c of [ratio, lab]) if (c) excitation.push(c);
-  }
+  const excitation = await excitationCharts(x);
   const energies = angularEnergies(x.rows, x.settings.max_angular_energies);
   const angularChart = await chart('angular', 'dσ/dΩ (CM) against θ (CM), per beam energy', angularChartSpec(x.rows, energies.shown));
   const nominal = new Map(x.config.detectors.map((d) => [d.id, d.solid_angle_msr]));

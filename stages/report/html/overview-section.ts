@@ -47,7 +47,7 @@ export function overviewSection(x: SummaryInput): string {
     : '';
   const n = c.normalization;
   return `<section id="overview"><h2>Overview</h2>
-<p>Beam <b>${h(c.beam.projectile)}</b>, charge state ${h(String(c.beam.charge_state))}+. Normalization: ${h(n.method)} on target <b>${h(n.reference_target)}</b>${n.reference_element ? ` (element ${h(n.reference_element)})` : ''}, screening ${h(n.screening)}, rule ${h(n.reference_rule)}.
+<p>Beam <b>${h(c.beam.projectile)}</b>, charge state ${h(String(c.beam.charge_state))}+. Normalization: ${h(n.method)}${n.reference_target !== undefined ? ` on target <b>${h(n.reference_target)}</b>` : ''}${n.reference_element ? ` (element ${h(n.reference_element)})` : ''}, screening ${h(n.screening)}, rule ${h(n.reference_rule)}.
 Peaks are measured by window integration above a linear background.</p>
 <p>Runs: <span class="badge">${count('reduced')} reduced</span> <span class="badge">${count('set-aside')} set aside</span> <span class="badge">${count('not-reduced')} not reduced (calibration, background)</span>; ${x.rows.length} cross-section rows.</p>
 <h3>Detectors</h3>${detectors}

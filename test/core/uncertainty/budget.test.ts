@@ -6,7 +6,7 @@ import { COMPONENT_NAMES, CORRELATION_CLASSES, type UncertaintyComponent } from 
 
 describe('uncertainty budget', () => {
   it('has the twelve component names and four correlation classes fixed by issue 5', () => {
-    expect(COMPONENT_NAMES).toEqual(['counting', 'background', 'reference_counting', 'reference_areal_density', 'sample_areal_density', 'areal_density_ratio', 'charge', 'live_time', 'screening', 'beam_energy', 'angle', 'calibration']);
+    expect(COMPONENT_NAMES).toEqual(['counting', 'background', 'reference_counting', 'reference_spread', 'reference_areal_density', 'sample_areal_density', 'areal_density_ratio', 'charge', 'live_time', 'screening', 'beam_energy', 'angle', 'solid_angle', 'calibration']);
     expect(CORRELATION_CLASSES).toEqual(['uncorrelated', 'run', 'detector', 'series']);
   });
 

@@ -1,4 +1,4 @@
-import { cpSync, mkdirSync, readFileSync } from 'node:fs';
+import { cpSync, lstatSync, mkdirSync, readFileSync, readlinkSync } from 'node:fs';
 import { join } from 'node:path';
 import * as arrow from 'apache-arrow';
 import Database from 'better-sqlite3';
@@ -42,8 +42,17 @@ export function readRunlog(seriesDir: string): RunlogRow[] {
   });
 }
 
-/** The version named by `<series-out>/current`. */
-export const currentVersion = (seriesOut: string) => (JSON.parse(readFileSync(join(seriesOut, 'current'), 'utf8')) as { version: string }).version;
+/**
+ * The version `<series-out>/current` links to, read independently of the version store:
+ * DESIGN.md fixes it as a relative symbolic link `current -> versions/<V>`; anything else throws.
+ */
+export function currentVersion(seriesOut: string): string {
+  const link = join(seriesOut, 'current');
+  if (!lstatSync(link).isSymbolicLink()) throw new Error(`${link} is not a symbolic link`);
+  const m = /^versions\/(v\d{6})$/.exec(readlinkSync(link));
+  if (!m) throw new Error(`${link} -> ${readlinkSync(link)}: not versions/<V>`);
+  return m[1]!;
+}
 
 /** Opens every table of a version folder (throws if one does not parse); returns the row counts. */
 export function openTables(versionDir: string): Record<string, number> {

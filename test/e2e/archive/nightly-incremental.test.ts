@@ -97,6 +97,9 @@ describe('xsred nightly: incremental reduction by content hash (issue 6)', () =>
     // Only the covered runs' spectra are read again (the calibration moves their windows).
     expect(alpha!.runs_measured).toBe(covered.size);
 
+    // current -> versions/v000002, whose version.json names v000001: the diff's default pair.
+    expect(currentVersion(join(out, 'arch-alpha'))).toBe('v000002');
+    expect(JSON.parse(readFileSync(join(out, 'arch-alpha', 'current', 'version.json'), 'utf8'))).toMatchObject({ version: 'v000002', previous: 'v000001' });
     const d = await runCli(['diff', join(out, 'arch-alpha')]);
     expect(d.code, d.stderr).toBe(0);
     expect(d.stdout).toMatch(/v000001 → v000002/);
@@ -105,9 +108,19 @@ describe('xsred nightly: incremental reduction by content hash (issue 6)', () =>
     const samples = [...expected].filter((run) => runlog.find((x) => x.run === run)!.kind === 'sample');
     const xs = readArrowRows(join(out, 'arch-alpha', 'versions', 'v000002', 'cross_sections.arrow'));
     const moved = xs.filter((x) => x.detector === 'd01' && samples.includes(String(x.run))).map((x) => `${x.run} ${x.detector} ${x.peak}`);
-    const movedRows = diffRows.filter((x) => x.change === 'moved');
-    expect(movedRows.map((x) => `${x.run} ${x.detector} ${x.peak}`).sort()).toEqual(moved.sort());
+    const key = (x: Record<string, unknown>) => `${x.run} ${x.detector} ${x.peak}`;
+    const movedRows = diffRows.filter((x) => x.change === 'moved' && moved.includes(key(x)));
+    expect(movedRows.map(key).sort()).toEqual(moved.sort());
     expect(movedRows.every((x) => typeof x.cross_section_lab_shift_sigma === 'number' && x.cross_section_lab_shift_sigma !== 0)).toBe(true);
+    // The reference spread (issue 5: the scatter of all of a detector's reference runs beyond their
+    // own uncertainties, DerSimonian & Laird 1986) uses every reference run of the detector: where it
+    // changes, the systematic columns of d01's other rows move too — never a value.
+    const sysOnly = new Set(['cross_section_lab_sys_mb_per_sr', 'cross_section_cm_sys_mb_per_sr', 'ratio_to_rutherford_sys', 'flags']);
+    for (const x of diffRows.filter((y) => y.change === 'moved' && !moved.includes(key(y)))) {
+      expect(x.detector, key(x)).toBe('d01');
+      expect(String(x.changed_columns).split(';').every((c) => sysOnly.has(c)), `${key(x)}: ${x.changed_columns}`).toBe(true);
+      expect(x.cross_section_lab_shift_sigma).toBe(0);
+    }
     // Other rows may only be relabelled: the reference-outlier test and the nominal check use all
     // reference runs of a detector, so a flag can change where no number does.
     for (const x of diffRows.filter((y) => y.change !== 'moved')) {

@@ -1,4 +1,4 @@
-import { cpSync, mkdirSync, mkdtempSync, readFileSync, symlinkSync } from 'node:fs';
+import { cpSync, mkdirSync, mkdtempSync, readFileSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import * as arrow from 'apache-arrow';
@@ -102,8 +102,22 @@ describe('xsred export', () => {
     expect(readFileSync(out, 'utf8')).toBe(readFileSync(join(work, 'xs.csv'), 'utf8'));
   });
 
+  it('a current that is a plain file, not the symbolic link DESIGN.md fixes, is a diagnostic and exit code 2', async () => {
+    const series = join(work, 'archive/plain-pointer');
+    mkdirSync(join(series, 'versions'), { recursive: true });
+    cpSync(reduced, join(series, 'versions/v000001'), { recursive: true });
+    writeFileSync(join(series, 'current'), '{"version": "v000001"}\n');
+    const r = await runCli(['export', series, '--format', 'csv', '--out', join(work, 'plain.csv')]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/is not a symbolic link.*\[export-current-not-a-link\]/);
+  });
+
   it('--combined without combined.arrow, and a folder that is no reduction: a clear diagnostic and exit code 2', async () => {
-    const c = await runCli(['export', reduced, '--format', 'csv', '--combined', '--out', join(work, 'c.csv')]);
+    // xsred reduce writes combined.arrow since issue 5: a reduction folder without it (an older version) is made here.
+    const older = join(work, 'older-reduction');
+    cpSync(reduced, older, { recursive: true });
+    rmSync(join(older, 'combined.arrow'));
+    const c = await runCli(['export', older, '--format', 'csv', '--combined', '--out', join(work, 'c.csv')]);
     expect(c.code).toBe(2);
     expect(c.stderr).toMatch(/combined\.arrow does not exist.*\[export-no-combined-table\]/);
     expect(c.stderr).toMatch(/hint: drop --combined/);
