@@ -91,7 +91,7 @@ export function registerArchiveCommands(program: Command, setExitCode: (code: nu
     .option('--out <file>', 'where to write diff.arrow (default <series-out>/diffs/<from>-<to>/diff.arrow)')
     .addOption(new Option('--limit <n>', 'rows shown in the terminal table').argParser(whole(0)).default(20))
     .option('--json', 'print the summary as JSON instead of the table')
-    .addHelpText('after', '\nShift = (new − old) / √(u_old² + u_new²), u = stat ⊕ sys of each version (docs/operating-guide.md).')
+    .addHelpText('after', '\nShift = (new − old) / √(u_old² + u_new²), u = stat ⊕ sys of each version (README, "Operating guide").')
     .action(async (seriesOut: string, o: { from?: string; to?: string; out?: string; limit: number; json?: boolean }) => {
       const [{ diffVersions }, { formatDiff }] = await Promise.all([import('./archive/diff-versions.js'), import('./archive/format-diff.js')]);
       try {

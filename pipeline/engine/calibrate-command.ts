@@ -101,7 +101,7 @@ export function calibrateSeries(opts: CalibrateOptions): CalibrateResult {
       const r = fitDetectorCalibration(ingested.spectrum!.counts[di]!, lines, {
         fwhmKeV: det.resolution_fwhm_keV,
         prior: prior.detectors.get(det.id) ?? [...prior.detectors.values()][0]!,
-        degree: config.calibrate.degree >= 1.5 ? 2 : 1,
+        degree: config.calibrate.degree === 2 ? 2 : 1,
         searchThreshold: config.calibrate.search_threshold,
         matchToleranceKeV: config.calibrate.match_tolerance_keV,
         gainRangeRel: config.calibrate.gain_range_rel,

@@ -14,6 +14,8 @@ Exit codes:
   0  every run reduced
   3  reduced, but some runs were set aside (reasons in qc.arrow, diagnostics.json and the log)
   2  unusable arguments or a series-level error (nothing written)
+  4  nightly/rereduce: another xsred run holds the out-root's lock
+  5  nightly/rereduce: an output could not be written (disk full, permissions)
   1  internal error (a bug: please report it with the log)`;
 
 function positiveInt(v: string): number {
@@ -100,7 +102,7 @@ async function main(argv: string[]): Promise<number> {
     .addHelpText('after', `
 Each calibration run gives calibrations/cal-<run>.yaml, valid from that run up to the run before the
 next calibration run, superseding the versions that cover those runs. Existing files are never
-changed. Peak search, line assignment and the fits are described in docs/fitting-and-calibration.md.
+changed. Peak search, line assignment and the fits are described in README, "Peak fitting, calibration from calibration runs, and gain drift".
 Settings: calibrate.degree, calibrate.search_threshold, calibrate.match_tolerance_keV, calibrate.gain_range_rel.
 Exit codes: 0 every calibration run fitted; 3 some could not be (see the log); 2 unusable series.`)
     .action(async (seriesDir: string, o: { dryRun?: boolean; quiet?: boolean }) => {

@@ -53,7 +53,7 @@ export interface NormalizeOutput {
  * detector gives an effective solid angle from the Rutherford yield of the reference element;
  * reference runs of a detector that disagree beyond their uncertainties, or an effective solid
  * angle far from the nominal one, are flagged. Each sample run × detector then gets the
- * exposure model of the configured method (sample-normalizations.ts; docs/normalization-and-uncertainties.md).
+ * exposure model of the configured method (sample-normalizations.ts; README, "Normalization methods and uncertainties").
  */
 export function normalize(input: NormalizeInput): NormalizeOutput {
   const { config } = input;

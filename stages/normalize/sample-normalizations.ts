@@ -41,7 +41,7 @@ export interface SampleNormalizations {
 
 /**
  * The exposure model L of every sample run × detector for the configured method
- * (docs/normalization-and-uncertainties.md): reference-run (the reference rule over each
+ * (README, "Normalization methods and uncertainties"): reference-run (the reference rule over each
  * detector's ΔΩ_k models), monitor (the monitor's reference-element yield in the run × the
  * detector's solid angle relative to the monitor from the reference runs), internal-reference
  * (the role: reference layer's yield in the same spectrum) or absolute (charge × nominal solid

@@ -53,7 +53,7 @@ export interface ReportInput {
   /** Write summary.html (vega loads only then). */
   html: boolean;
   /**
-   * Issue 5 tables (docs/normalization-and-uncertainties.md): uncertainty_budget.arrow and
+   * Issue 5 tables (README, "Normalization methods and uncertainties"): uncertainty_budget.arrow and
    * combined.arrow always when given; covariance.arrow unless null (too many rows);
    * monte_carlo.arrow with --mc only.
    */

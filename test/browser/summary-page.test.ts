@@ -10,7 +10,7 @@ import { HOSTILE, hostileReportInput } from '../stages/report/hostile-report-inp
 
 // The page is checked in a real browser (Debian's Chromium driven by playwright-core): it must load
 // from a file URL with no console error and no request outside file:/data:, draw every plot, and run
-// nothing a user-supplied string could inject. The contract is this project's own (docs/report-and-exports.md).
+// nothing a user-supplied string could inject. The contract is this project's own (README, "Summary page and exports").
 
 const CHROMIUM = '/usr/bin/chromium';
 const inCi = ['1', 'true'].includes((process.env.CI ?? '').toLowerCase());

@@ -14,7 +14,7 @@ export interface ConfigIssue {
 }
 
 /** The parts of a series configuration (series.yaml or a simulation spec) the checks read. */
-export type SeriesReferences = Pick<SeriesConfig, 'beam' | 'detectors' | 'targets' | 'peaks'> & {
+export type SeriesReferences = Pick<SeriesConfig, 'beam' | 'detectors' | 'targets' | 'peaks'> & Partial<Pick<SeriesConfig, 'calibration_sources'>> & {
   normalization: Pick<SeriesConfig['normalization'], 'reference_target' | 'reference_element'> & Partial<Pick<SeriesConfig['normalization'], 'method' | 'monitor_detector'>>;
 };
 
@@ -93,5 +93,10 @@ export function checkSeriesReferences(config: SeriesReferences): ConfigIssue[] {
     const has = ref.layers.some((l) => Object.keys(l.composition).some((k) => k === el || parseNuclideName(k)?.symbol === el));
     if (!has) error(['normalization', 'reference_element'], 'series-reference-element', `reference_element ${el} is not in reference target ${ref.id}`);
   }
+  (config.calibration_sources ?? []).forEach((c, i) => {
+    if (c.target !== undefined && !config.targets.some((t) => t.id === c.target)) {
+      error(['calibration_sources', i, 'target'], 'series-unknown-target', `calibration source "${c.id}" names target "${c.target}", which is not a target id`, { expected: config.targets.map((t) => t.id).join(', ') });
+    }
+  });
   return issues;
 }

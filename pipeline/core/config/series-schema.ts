@@ -65,7 +65,7 @@ export const peakSchema = z.strictObject({
   q_value_keV: z.number().optional().meta({ description: 'overrides Q computed from AME2020 masses and excitation_keV', unit: 'keV' }),
   ejectile: nuclideName.optional().meta({ description: 'the light outgoing particle b of A(a,b)B (default: the projectile)' }),
   detect: z.enum(['ejectile', 'recoil']).default('ejectile').meta({ description: 'which outgoing particle the detector sees: b (ejectile) or the residual B (recoil, e.g. elastic recoil detection)' }),
-  method: z.enum(['window', 'fit']).default('window').meta({ description: 'how the peak area is measured: window = sum above a side-window background; fit = Poisson maximum-likelihood line-shape fit (docs/fitting-and-calibration.md)' }),
+  method: z.enum(['window', 'fit']).default('window').meta({ description: 'how the peak area is measured: window = sum above a side-window background; fit = Poisson maximum-likelihood line-shape fit (README, "Peak fitting, calibration from calibration runs, and gain drift")' }),
   fit_group: id('fit group').optional().meta({ description: 'peaks (method: fit) sharing a fit_group are fitted together as one multiplet' }),
 });
 
@@ -79,7 +79,7 @@ export const calibrationSourceSchema = z
   .refine((s) => (s.lines_from === undefined) !== (s.target === undefined), { message: 'give exactly one of lines_from (alpha source) or target (elastic peaks)' });
 
 export const calibrateSettingsSchema = z.strictObject({
-  degree: numberSetting({ default: 1, min: 1, max: 2, doc: 'polynomial degree of a fitted calibration (1 linear, 2 quadratic)' }),
+  degree: numberSetting({ default: 1, min: 1, max: 2, integer: true, doc: 'polynomial degree of a fitted calibration (1 linear, 2 quadratic)' }),
   search_threshold: numberSetting({ default: 5, min: 2, doc: 'peak-search significance threshold (smoothed second difference / its standard deviation)' }),
   match_tolerance_keV: numberSetting({ default: 25, min: 0.1, unit: 'keV', doc: 'a found peak matches a known line within this distance through the trial calibration' }),
   gain_range_rel: numberSetting({ default: 0.2, min: 0.001, max: 0.9, doc: 'trial gains are searched within this fraction of the current calibration\'s gain' }),
@@ -94,7 +94,7 @@ export const driftSchema = z.strictObject({
 export const normalizationSchema = z.strictObject({
   method: enumSetting(['reference-run', 'internal-reference', 'monitor', 'absolute'] as const, {
     default: 'reference-run',
-    doc: 'reference-run = separate reference target runs; internal-reference = a role: reference layer in the sample target; monitor = one detector\'s Rutherford yield on the reference element in every run; absolute = charge × nominal solid angle (docs/normalization-and-uncertainties.md)',
+    doc: 'reference-run = separate reference target runs; internal-reference = a role: reference layer in the sample target; monitor = one detector\'s Rutherford yield on the reference element in every run; absolute = charge × nominal solid angle (README, "Normalization methods and uncertainties")',
   }),
   reference_target: id('target id').optional().meta({ description: 'the target whose yield follows the Rutherford cross section (required by reference-run and monitor)' }),
   reference_element: z

@@ -5,8 +5,8 @@ import { z } from 'zod';
  * a one-line doc and the unit. The config validator, the JSON Schema in configs/, the
  * CLI help and the README settings table are all generated from these definitions.
  */
-export function numberSetting(opts: { default: number; min?: number; max?: number; unit?: string; doc: string }) {
-  let s = z.number();
+export function numberSetting(opts: { default: number; min?: number; max?: number; unit?: string; doc: string; integer?: boolean }) {
+  let s = opts.integer ? z.number().int() : z.number();
   if (opts.min !== undefined) s = s.min(opts.min);
   if (opts.max !== undefined) s = s.max(opts.max);
   return s.default(opts.default).meta({ description: opts.doc, ...(opts.unit ? { unit: opts.unit } : {}) });

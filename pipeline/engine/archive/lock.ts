@@ -44,28 +44,37 @@ function alive(pid: number): boolean {
   }
 }
 
+/**
+ * Creates the lock with its content in one step: the content goes to a private temp file, which
+ * link(2) then publishes under the lock's name — failing with EEXIST when a lock exists. The lock
+ * is therefore never seen empty, even when its taker is killed mid-way (a leftover temp file is
+ * only that process's, harmless, and removed by the next taker with the same PID).
+ */
 function createExclusive(path: string, info: LockInfo): boolean {
-  let fd: number;
-  try {
-    fd = openSync(path, 'wx');
-  } catch (e) {
-    if ((e as NodeJS.ErrnoException).code === 'EEXIST') return false;
-    throw e;
-  }
+  const temp = `${path}.${info.pid}.tmp`;
+  const fd = openSync(temp, 'w');
   try {
     writeSync(fd, `${JSON.stringify(info)}\n`);
     fsyncSync(fd);
   } catch (e) {
     closeSync(fd);
-    rmSync(path, { force: true }); // disk full or the like: leave no empty lock behind
+    rmSync(temp, { force: true }); // disk full or the like: leave nothing behind
     throw e;
   }
   closeSync(fd);
-  return true;
+  try {
+    linkSync(temp, path);
+    return true;
+  } catch (e) {
+    if ((e as NodeJS.ErrnoException).code === 'EEXIST') return false;
+    throw e;
+  } finally {
+    rmSync(temp, { force: true });
+  }
 }
 
 /**
- * Takes `<out-root>/.xsred.lock`, created with O_EXCL and holding PID, host, start time and
+ * Takes `<out-root>/.xsred.lock`, created atomically (link(2), so never empty) and holding PID, host, start time and
  * command. A lock whose PID is dead on this host is stale: it is moved aside (an atomic
  * rename, so two takers cannot both win) and taken over, and `takenOver` says whose it was.
  * So is an unreadable (empty) lock older than 10 s. A lock held by a live process, or by

@@ -34,4 +34,9 @@ describe('checkSeriesReferences', () => {
     ]);
     expect(rules({ ...base(), normalization: { reference_target: 'nowhere' } })).toEqual([['error', 'series-unknown-target', 'normalization.reference_target']]);
   });
+  it('a calibration source must name a defined target (this project\'s contract, README "Calibration from calibration runs")', () => {
+    const c = { ...base(), calibration_sources: [{ id: 'mixed', lines_from: ['241Am'] }, { id: 'film', target: 'no-such-film' }] };
+    expect(rules(c)).toEqual([['error', 'series-unknown-target', 'calibration_sources.1.target']]);
+    expect(rules({ ...base(), calibration_sources: [{ id: 'film', target: 'ref' }] })).toEqual([]);
+  });
 });

@@ -9,7 +9,7 @@ import { rebinCounts, rebinnedLength } from '../../../stages/report/spectra/rebi
 import { escapeHtml } from '../../../pipeline/core/text/escape-html.js';
 import { HOSTILE, hostileReportInput } from './hostile-report-input.js';
 
-// The page contract is this project's own (docs/report-and-exports.md); the Content-Security-Policy
+// The page contract is this project's own (README, "Summary page and exports"); the Content-Security-Policy
 // hash source follows the W3C CSP Level 3 recommendation ('sha256-' + base64 of the script's UTF-8 bytes).
 
 const page = async (i: ReportInput) => new TextDecoder().decode((await report(i)).files.find((f) => f.name === 'summary.html')!.bytes);
