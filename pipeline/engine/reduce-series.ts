@@ -11,7 +11,7 @@ import { calibrate } from '../../stages/calibrate/index.js';
 import { normalize, normalizingElement, planNormalizingWindows, referenceKey } from '../../stages/normalize/index.js';
 import { seriesPeakPlanner } from '../core/kinematics/series-peak-planner.js';
 import { extract, measuredKey, pageBudgets, planPeakWindows, seriesUncertaintyTables } from '../../stages/extract/index.js';
-import { pickSpectra, report, reportSettings, type ReportSpectrum } from '../../stages/report/index.js';
+import { pickSpectra, report, reportSettings, type ReportChangesInput, type ReportSpectrum } from '../../stages/report/index.js';
 import { writeFileAtomic } from './atomic-write.js';
 import { buildManifest } from './build-manifest.js';
 import { EXIT } from './exit-codes.js';
@@ -38,6 +38,8 @@ export interface ReduceOptions {
   onProgress?: (done: number, total: number) => void;
   /** `--mc N`: Monte Carlo propagation (JCGM 101) of every row with N trials from this seed (monte_carlo.arrow). */
   monteCarlo?: { trials: number; seed: number };
+  /** Archive versions: "changes since previous version" for the summary page (see ReportInput.changes). */
+  changes?: ReportChangesInput;
 }
 
 /** Measured results kept by the archive ledger, keyed by the content of a task and its spectrum. */
@@ -276,6 +278,7 @@ export async function reduceSeries(opts: ReduceOptions): Promise<ReduceResult> {
     ...(opts.html ? { budgets: pageBudgets(ext.rows, ext.uncertainties) } : {}),
     uncertainty,
     ...(tasks.some((t) => t.fits !== undefined) ? { fits: fitOut.fits, fitResiduals: fitOut.residuals } : {}),
+    ...(opts.changes !== undefined ? { changes: opts.changes } : {}),
   });
   phase('report');
   for (const f of rep.files) writeFileAtomic(join(outSeriesDir, f.name), f.bytes);

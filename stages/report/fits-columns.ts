@@ -48,6 +48,8 @@ export interface FitResidualRow {
   observed: number;
   model: number;
   residual: number;
+  /** The fitted background in the channel, counts (drawn on the summary page; not a column of fit_residuals.arrow). */
+  background?: number;
 }
 
 /** Gain-drift columns added to qc.arrow when drift.mode is track or correct. */

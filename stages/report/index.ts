@@ -7,6 +7,8 @@ import { CROSS_SECTION_COLUMNS } from './cross-section-columns.js';
 import { renderCharts } from './charts/render-charts.js';
 import { reportSettings } from './report-settings.js';
 import type { ReportSpectrum } from './spectra/report-spectrum.js';
+import { attachFitCurves } from './spectra/fit-curves.js';
+import type { ReportChanges, ReportChangesInput } from './changes/report-changes.js';
 import type { ReportRun, SummaryInput } from './summary-input.js';
 import { summaryHtml } from './summary-html.js';
 import { budgetFromColumns, type RowBudget } from './uncertainty-budget.js';
@@ -22,6 +24,7 @@ export { reportSettings, reportSettingsSchema, REPORT_DEFAULTS, type ReportSetti
 export { pickSpectra } from './spectra/pick-spectra.js';
 export type { ReportSpectrum, SpectrumCurve } from './spectra/report-spectrum.js';
 export type { ReportRun } from './summary-input.js';
+export type { ReportChanges, ReportChangesInput } from './changes/report-changes.js';
 export type { RowBudget, UncertaintyComponent } from './uncertainty-budget.js';
 export { archiveIndexHtml, type ArchiveEntry } from './archive-index-html.js';
 
@@ -66,6 +69,11 @@ export interface ReportInput {
   /** Peak fits (method: fit): fits.arrow and fit_residuals.arrow are written only when given. */
   fits?: readonly FitRow[];
   fitResiduals?: readonly FitResidualRow[];
+  /**
+   * Archive versions (nightly, rereduce): the changes since the previous version, or a function of the
+   * new cross_sections.arrow bytes that gives them; absent for a plain `xsred reduce`.
+   */
+  changes?: ReportChangesInput;
 }
 
 export interface OutputFile {
@@ -82,8 +90,9 @@ export async function report(input: ReportInput): Promise<{ files: OutputFile[] 
   const extra = Object.fromEntries(Object.entries(editions).map(([k, v]) => [`xsred.edition.${k}`, v]));
   const meta = (table: string) => ({ table, extra: { ...extra, 'xsred.series': input.config.series, 'xsred.version': input.manifest.software.version } });
   const nominal = new Map(input.detectors.map((d) => [d.detector, d.nominalMsr]));
+  const crossSections = tableToIpcFile(buildTable(CROSS_SECTION_COLUMNS, input.rows, meta('cross sections: one row per sample run × detector × peak')));
   const files: OutputFile[] = [
-    { name: 'cross_sections.arrow', bytes: tableToIpcFile(buildTable(CROSS_SECTION_COLUMNS, input.rows, meta('cross sections: one row per sample run × detector × peak'))) },
+    { name: 'cross_sections.arrow', bytes: crossSections },
     {
       name: 'normalization.arrow',
       bytes: tableToIpcFile(
@@ -119,7 +128,7 @@ export async function report(input: ReportInput): Promise<{ files: OutputFile[] 
       yields: input.yields,
       qc: input.qc,
       runs: input.runs ?? [],
-      spectra: input.spectra ?? [],
+      spectra: input.fitResiduals?.length ? attachFitCurves(input.spectra ?? [], input.fitResiduals) : (input.spectra ?? []),
       budgets: input.budgets ?? input.rows.filter((r) => Number.isFinite(r.crossSectionLabMbPerSr) && r.crossSectionLabMbPerSr !== 0).map(budgetFromColumns),
       diagnostics: input.diagnostics,
       provenance: {
@@ -131,6 +140,7 @@ export async function report(input: ReportInput): Promise<{ files: OutputFile[] 
         editions,
         calibrationVersions: m.calibration_versions,
       },
+      ...changesOf(input.changes, crossSections),
     };
     const html = summaryHtml({ ...page, charts: await renderCharts(page) });
     files.push({ name: 'summary.html', bytes: new TextEncoder().encode(html) });
@@ -138,4 +148,10 @@ export async function report(input: ReportInput): Promise<{ files: OutputFile[] 
   files.push({ name: 'diagnostics.json', bytes: new TextEncoder().encode(`${JSON.stringify(input.diagnostics, null, 1)}\n`) });
   files.push({ name: 'manifest.json', bytes: new TextEncoder().encode(`${JSON.stringify(input.manifest, null, 2)}\n`) });
   return { files };
+}
+
+/** The page's changes field: left out for a plain reduction, else the summary (computed now when given as a function). */
+function changesOf(changes: ReportChangesInput | undefined, crossSectionsIpc: Uint8Array): { changes?: ReportChanges | null } {
+  if (changes === undefined) return {};
+  return { changes: typeof changes === 'function' ? changes(crossSectionsIpc) : changes };
 }

@@ -7,6 +7,8 @@ import { overviewSection } from './html/overview-section.js';
 import { PAGE_STYLE } from './html/page-style.js';
 import { PICKER_SCRIPT_HASH } from './html/picker-script.js';
 import { spectraSection } from './html/spectra-section.js';
+import { calibrationDriftSection } from './html/calibration-drift-section.js';
+import { changesSection } from './changes/changes-section.js';
 
 const fig = (c: RenderedChart | null, none: string) => (c ? chartFigure(c.id, c.caption, c.svg) : `<p>${h(none)}</p>`);
 
@@ -23,8 +25,8 @@ export function summaryHtml(x: SummaryInput): string {
     ? `${ch.angular.shown < ch.angular.total ? `<p class="note">${ch.angular.shown} of ${ch.angular.total} beam energies with two or more angles (report.max_angular_energies, spread evenly).</p>` : ''}${fig(ch.angular.chart, '')}`
     : '<p>No beam energy has cross sections at two or more angles.</p>';
   const toc = [
-    ['overview', 'Overview'], ['excitation', 'Excitation functions'], ['angular', 'Angular distributions'], ['spectra', 'Spectra'],
-    ['normalization', 'Normalization'], ['runs-qc', 'Dead time and drift'], ['budget', 'Uncertainty budget'], ['cross-sections', 'Cross sections'],
+    ['overview', 'Overview'], ['changes', 'Changes'], ['excitation', 'Excitation functions'], ['angular', 'Angular distributions'], ['spectra', 'Spectra'],
+    ['normalization', 'Normalization'], ['runs-qc', 'Dead time, drift and calibrations'], ['budget', 'Uncertainty budget'], ['cross-sections', 'Cross sections'],
     ['diagnostics', 'Diagnostics'], ['provenance', 'Provenance'], ['numbers', 'How numbers are shown'],
   ].map(([id, t]) => `<a href="#${id}">${t}</a>`).join('');
   return `<!DOCTYPE html>
@@ -36,6 +38,7 @@ export function summaryHtml(x: SummaryInput): string {
 <p id="series-title">${h(c.title)}</p></header>
 <nav class="toc">${toc}</nav>
 ${overviewSection(x)}
+${changesSection(x.changes)}
 <section id="excitation"><h2>Excitation functions</h2>
 <p class="note">Per peak, one panel per detector. Dark bars: statistical standard uncertainty; light bars: statistical and systematic combined in quadrature. A panel with more than ${DENSE_PANEL_POINTS} rows (more points than it is wide in pixels) is drawn as a line through every value with dark (statistical) and light (total) bands instead; its caption says so.</p>
 ${ch.excitation.length ? ch.excitation.map((e) => chartFigure(e.id, e.caption, e.svg)).join('\n') : '<p>No rows to plot.</p>'}
@@ -50,11 +53,7 @@ ${spectraSection(x)}
 ${fig(ch.normalization, 'No reference run gave an effective solid angle.')}
 ${normalizationTable(x)}
 </section>
-<section id="runs-qc"><h2>Dead time and drift</h2>
-${fig(ch.deadTime, 'No live fractions to show.')}
-${fig(ch.drift, 'No measured peak centroid to show.')}
-<p class="note">Calibrations are read from calibrations/*.yaml (versions: ${h(x.provenance.calibrationVersions.join(', ') || 'none')}), not fitted from calibration runs, so there are no calibration residuals to show; gain drift shows as the centroid shift above.</p>
-</section>
+${calibrationDriftSection(x)}
 <section id="budget"><h2>Uncertainty budget</h2>
 <p class="note">Median over rows of each component's relative standard uncertainty of dσ/dΩ (lab; the same fractions hold in the CM frame). Components add in quadrature.</p>
 ${fig(ch.budget, 'No rows with uncertainties.')}

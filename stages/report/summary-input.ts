@@ -5,6 +5,7 @@ import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import type { ReportSettings } from './report-settings.js';
 import type { ReportSpectrum } from './spectra/report-spectrum.js';
 import type { RowBudget } from './uncertainty-budget.js';
+import type { ReportChanges } from './changes/report-changes.js';
 
 /** What the page says about each run of runlog.csv (the ingested run records fit). */
 export type ReportRun = Pick<RunRecord, 'run' | 'index' | 'kind' | 'target' | 'beamEnergyKeV' | 'beamEnergyUncKeV' | 'startedAt' | 'note'>;
@@ -33,6 +34,8 @@ export interface RenderedCharts {
   normalization: RenderedChart | null;
   deadTime: RenderedChart | null;
   drift: RenderedChart | null;
+  /** Shift of the drift-tracking peak with its uncertainty and tolerance band (drift.mode track | correct). */
+  driftTracking: RenderedChart | null;
   budget: RenderedChart | null;
   /** One SVG per embedded spectrum, in run order then detector order. */
   spectra: { run: string; detector: string; svg: string }[];
@@ -52,4 +55,6 @@ export interface SummaryInput {
   diagnostics: readonly Diagnostic[];
   charts: RenderedCharts;
   provenance: Provenance;
+  /** Changes since the previous archive version: absent for a plain reduction, null for a first version. */
+  changes?: ReportChanges | null;
 }

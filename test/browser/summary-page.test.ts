@@ -1,4 +1,4 @@
-import { existsSync, mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -7,6 +7,10 @@ import type { BrowserContext, Page } from 'playwright-core';
 import { report } from '../../stages/report/index.js';
 import { REPO_ROOT, runCli } from '../e2e/run-cli.js';
 import { HOSTILE, hostileReportInput } from '../stages/report/hostile-report-input.js';
+import { simulateSeries } from '../../pipeline/simulate/simulate-series.js';
+import { simulationSpecSchema } from '../../pipeline/simulate/simulation-spec.js';
+import { smallSpec } from '../simulate/small-spec.js';
+import { carbonDoubletSpec } from '../e2e/fitting/carbon-doublet-spec.js';
 
 // The page is checked in a real browser (Debian's Chromium driven by playwright-core): it must load
 // from a file URL with no console error and no request outside file:/data:, draw every plot, and run
@@ -30,6 +34,8 @@ describe.skipIf(!haveChromium && !inCi)('summary.html in headless Chromium', () 
   let context: BrowserContext;
   let demoPage: string;
   let hostilePage: string;
+  let archivePage: string;
+  let fittedPage: string;
   const artifacts = join(REPO_ROOT, 'test-artifacts');
 
   beforeAll(async () => {
@@ -39,6 +45,23 @@ describe.skipIf(!haveChromium && !inCi)('summary.html in headless Chromium', () 
     demoPage = join(work, 'out/fval-2026-c12-alpha/summary.html');
     hostilePage = join(work, 'hostile.html');
     writeFileSync(hostilePage, (await report(hostileReportInput())).files.find((f) => f.name === 'summary.html')!.bytes);
+    // An archive version with a previous one: rereduce, revise a calibration (offset + 3 keV), rereduce again.
+    const arch = join(work, 'archive');
+    const { seriesDir } = simulateSeries(simulationSpecSchema.parse(smallSpec({ series: 'brw-changes' })), join(arch, 'lab'));
+    for (const pass of [0, 1]) {
+      if (pass === 1) {
+        const cal = join(seriesDir, 'calibrations', readdirSync(join(seriesDir, 'calibrations')).sort()[0]!);
+        writeFileSync(cal, readFileSync(cal, 'utf8').replace(/offset_keV: ([-\d.]+)/, (_m, v: string) => `offset_keV: ${Number(v) + 3}`));
+      }
+      const a = await runCli(['rereduce', arch, '--out', join(work, 'archive-out'), '--settle-s', '0', '--quiet']);
+      expect(a.code, a.stderr).toBe(0);
+    }
+    archivePage = join(work, 'archive-out/brw-changes/current/summary.html');
+    // A series whose peaks are fitted (method: fit, fit_group carbon).
+    const doublet = simulateSeries(simulationSpecSchema.parse(carbonDoubletSpec()), join(work, 'doublet'));
+    const f = await runCli(['reduce', doublet.seriesDir, '--out', join(work, 'doublet-out'), '--quiet']);
+    expect(f.code, f.stderr).toBe(0);
+    fittedPage = join(work, 'doublet-out', carbonDoubletSpec().series, 'summary.html');
     const { chromium } = await import('playwright-core');
     context = await chromium.launchPersistentContext(mkdtempSync(join(tmpdir(), 'xsred-chromium-')), {
       executablePath: CHROMIUM,
@@ -126,6 +149,45 @@ describe.skipIf(!haveChromium && !inCi)('summary.html in headless Chromium', () 
     expect(await page.locator('#overview').isVisible()).toBe(true);
     expect(await page.locator('figure.spectrum:visible').count()).toBe(64);
     expect(await page.locator('#spectrum-picker').isVisible()).toBe(false);
+    await page.close();
+  });
+
+  it('an archive version page shows the changes since the previous version (a revised calibration moved rows)', async () => {
+    const o = await open(archivePage);
+    const { page } = o;
+    const changes = page.locator('#changes');
+    expect(await changes.isVisible()).toBe(true);
+    const cells = await changes.locator('table').first().locator('tbody td').allTextContents();
+    expect(cells.slice(0, 2)).toEqual(['v000001', 'v000002']);
+    expect(Number(cells[5])).toBeGreaterThan(0); // moved rows
+    expect(await page.locator('#changes-largest').textContent()).toMatch(/^Largest shift: run r\d+/);
+    expect(await changes.locator('details tbody tr').count()).toBeGreaterThan(0);
+    expect(o.consoleErrors).toEqual([]);
+    expect(o.foreignRequests).toEqual([]);
+    // a plain reduction's page says it is not an archive version
+    const plain = await open(demoPage);
+    expect(await plain.page.locator('#changes-none').textContent()).toContain('Not an archive version');
+    await plain.page.close();
+    await page.close();
+  });
+
+  it('a fitted spectrum draws the fitted model and its background as curves with drawn marks', async () => {
+    const o = await open(fittedPage);
+    const { page } = o;
+    const figures = page.locator('figure.spectrum');
+    expect(await figures.count()).toBeGreaterThan(0);
+    const sample = page.locator('figure.spectrum:has(.fit_curves_marks > path)');
+    expect(await sample.count()).toBeGreaterThan(0);
+    // one model (solid) and one background (dashed) line per fitted group
+    const dashes = await sample.first().locator('.fit_curves_marks > path').evaluateAll((ps) => ps.map((p) => p.getAttribute('stroke-dasharray')));
+    expect(dashes.sort()).toEqual(['1,0', '4,2']);
+    // shown through the picker (one spectrum at a time when scripts run), the curve has an extent on screen
+    await expect.poll(() => page.locator('#spectrum-picker').isVisible()).toBe(true);
+    await page.selectOption('#pick-run', (await sample.first().getAttribute('data-run'))!);
+    await page.selectOption('#pick-detector', (await sample.first().getAttribute('data-detector'))!);
+    const box = await sample.first().locator('.fit_curves_marks > path').first().boundingBox();
+    expect(box!.width).toBeGreaterThan(2);
+    expect(o.consoleErrors).toEqual([]);
     await page.close();
   });
 

@@ -7,7 +7,7 @@ import { writeFileAtomic } from '../atomic-write.js';
 import { EXIT } from '../exit-codes.js';
 import { reduceSeries } from '../reduce-series.js';
 import { SOFTWARE } from '../software.js';
-import { changesSincePrevious } from './change-summary.js';
+import { changesSincePrevious, type ChangeSummary } from './change-summary.js';
 import type { SeriesLocation } from './discover-series.js';
 import { FileHashCache } from './file-hash-cache.js';
 import { runInputHashes } from './input-hashes.js';
@@ -93,8 +93,13 @@ export async function reduceSeriesNight(ctx: NightContext, loc: SeriesLocation, 
     build = buildDir(seriesOut, version);
     const cache = ledgerMeasureCache(ctx.ledger, hashes, series, id);
     const measureCache = ctx.force ? { lookup: () => undefined, store: cache.store } : cache;
+    const previous = current && existsSync(join(versionDir(seriesOut, current.version), 'cross_sections.arrow')) ? current.version : null;
+    const previousIpc = previous ? readFileSync(join(versionDir(seriesOut, previous), 'cross_sections.arrow')) : null;
+    // The diff is made once, from the new table's bytes, when the page is written (or below with --no-html).
+    let changes: ChangeSummary | null | undefined;
+    const diffWithPrevious = (ipc: Uint8Array) => (changes = previous ? changesSincePrevious({ version: previous, crossSectionsIpc: previousIpc! }, { version, table: arrow.tableFromIPC(ipc) }) : null);
     ctx.progress.start(series, 0);
-    const r = await reduceSeries({ seriesDir: loc.dir, outDir: ctx.outRoot, outSeriesDir: build, jobs: ctx.jobs, html: ctx.html, commandLine: ctx.commandLine, measureCache, holdBack: heldBack, onProgress: (d, t) => ctx.progress.update(d, t) });
+    const r = await reduceSeries({ seriesDir: loc.dir, outDir: ctx.outRoot, outSeriesDir: build, jobs: ctx.jobs, html: ctx.html, commandLine: ctx.commandLine, measureCache, holdBack: heldBack, onProgress: (d, t) => ctx.progress.update(d, t), changes: diffWithPrevious });
     ctx.progress.stop();
     if (r.detail === undefined || r.exitCode === EXIT.usage) {
       rmSync(build, { recursive: true, force: true });
@@ -104,11 +109,8 @@ export async function reduceSeriesNight(ctx: NightContext, loc: SeriesLocation, 
       return done({ outcome: 'series-error', exitCode: EXIT.usage, version: current?.version ?? null, runs: noRuns, rows: 0, note, diagnostics: r.diagnostics });
     }
     verifyVersion(build, r.counts.rows, ctx.html);
-    const previous = current && existsSync(join(versionDir(seriesOut, current.version), 'cross_sections.arrow')) ? current.version : null;
-    const changes = previous
-      ? changesSincePrevious({ version: previous, crossSectionsIpc: readFileSync(join(versionDir(seriesOut, previous), 'cross_sections.arrow')) }, { version, table: arrow.tableFromIPC(readFileSync(join(build, 'cross_sections.arrow'))) })
-      : null;
-    writeFileAtomic(join(build, 'changes.json'), new TextEncoder().encode(`${JSON.stringify(changes, null, 2)}\n`));
+    const summary: ChangeSummary | null = (changes as ChangeSummary | null | undefined) ?? diffWithPrevious(readFileSync(join(build, 'cross_sections.arrow')));
+    writeFileAtomic(join(build, 'changes.json'), new TextEncoder().encode(`${JSON.stringify(summary, null, 2)}\n`));
     publishVersion(seriesOut, build, version, previous, ctx.now());
     build = null;
     switchCurrent(seriesOut, version);
@@ -141,7 +143,7 @@ export async function reduceSeriesNight(ctx: NightContext, loc: SeriesLocation, 
       {
         finished: ctx.now().toISOString(), outcome: 'reduced', exit_code: exitCode, fingerprint, config_hash: configHash, version, previous_version: previous,
         runs_total: runs.total, runs_reduced: runs.reduced, runs_reused: runs.reused, runs_measured: runs.measured, runs_set_aside: runs.setAside, runs_pending: runs.pending,
-        rows: r.counts.rows, note, diagnostics_json: JSON.stringify(r.diagnostics.filter((d) => d.severity === 'error')), changes_json: changes ? JSON.stringify(changes) : null,
+        rows: r.counts.rows, note, diagnostics_json: JSON.stringify(r.diagnostics.filter((d) => d.severity === 'error')), changes_json: summary ? JSON.stringify(summary) : null,
       },
       runRows,
     );
@@ -150,7 +152,7 @@ export async function reduceSeriesNight(ctx: NightContext, loc: SeriesLocation, 
       const removed = pruneVersions(seriesOut, ctx.keep, [version, previous]);
       if (removed.length > 0) ctx.log.info({ series, removed }, `${series}: pruned ${removed.length} old version(s) (--keep ${ctx.keep})`);
     }
-    return done({ outcome: 'reduced', exitCode, version, runs, rows: r.counts.rows, note, diagnostics: r.diagnostics, changes });
+    return done({ outcome: 'reduced', exitCode, version, runs, rows: r.counts.rows, note, diagnostics: r.diagnostics, changes: summary });
   } catch (e) {
     ctx.progress.stop();
     if (build !== null) {

@@ -2,6 +2,7 @@ import { energyToChannel, type EnergyCalibration } from '../../core/calibration/
 import type { PeakRequest } from '../../core/counting/peak-window.js';
 import { fitPeaks } from '../../core/fitting/fit-peaks.js';
 import { multipletSpec, type MultipletOptions } from '../../core/fitting/multiplet-spec.js';
+import { spectrumModel, type SpectrumModelSpec } from '../../core/fitting/spectrum-model.js';
 import { PEAK_VALUES_PER_LINE, type FitOutcome, type FitSettings, type FitTask } from './fit-plan.js';
 
 /** FWHM = 2√(2 ln 2)·σ for a Gaussian (common practice). */
@@ -24,7 +25,7 @@ export function fitGroup(counts: ArrayLike<number>, cal: EnergyCalibration, requ
     groupKey: task.groupKey, detector: task.detector, requestIndices: task.requestIndices, problem, firstChannel: first, channelCount: count,
     converged: false, stopReason: 'not-run', iterations: 0, quality: new Float64Array(8).fill(Number.NaN), parameterNames: [], parameters: new Float64Array(0),
     atBound: [], peaks: new Float64Array(lines.length * PEAK_VALUES_PER_LINE).fill(Number.NaN), areaCorrelation: new Float64Array(0),
-    observed: new Float64Array(0), model: new Float64Array(0), residuals: new Float64Array(0), flags: ['fit-not-done'],
+    observed: new Float64Array(0), model: new Float64Array(0), background: new Float64Array(0), residuals: new Float64Array(0), flags: ['fit-not-done'],
   });
   const expected = lines.map((r) => energyToChannel(cal, r.expectedEnergyKeV));
   if (expected.some((c) => !(c >= 0 && c <= n - 1))) return empty('an expected peak lies outside the spectrum');
@@ -81,7 +82,22 @@ export function fitGroup(counts: ArrayLike<number>, cal: EnergyCalibration, requ
     converged, stopReason: r.stopReason, iterations: r.iterations,
     quality: Float64Array.from([r.deviance, r.dof, r.deviancePerDof, r.devianceUpperTailP, r.runs.runs, r.runs.expectedRuns, r.runs.z, r.runs.pTooFew]),
     parameterNames: r.parameters.map((q) => q.name), parameters, atBound: r.parameters.map((q) => q.atBound), peaks,
-    areaCorrelation: Float64Array.from(r.areaCorrelation.flat()), observed, model: Float64Array.from(r.model), residuals: Float64Array.from(r.residuals),
+    areaCorrelation: Float64Array.from(r.areaCorrelation.flat()), observed, model: Float64Array.from(r.model), background: backgroundOf(spec, parameters), residuals: Float64Array.from(r.residuals),
     flags: [...flags].sort(),
   };
+}
+
+/**
+ * The background under the fitted peaks per channel of the region: the spectrum model at the fitted
+ * parameters with every peak area set to zero (the polynomial and, with a step, the erfc step; a
+ * tail scales with its area and goes too).
+ */
+function backgroundOf(spec: SpectrumModelSpec, valuesAndUnc: Float64Array): Float64Array {
+  const p = spec.parameters.length;
+  const params = new Float64Array(p);
+  for (let j = 0; j < p; j++) params[j] = valuesAndUnc[2 * j]!;
+  for (const peak of spec.peaks) params[peak.area] = 0;
+  const mu = new Float64Array(spec.channelCount);
+  spectrumModel(spec).evaluate(params, mu, new Float64Array(spec.channelCount * p));
+  return mu;
 }

@@ -55,6 +55,11 @@ export interface FitOutcome {
   areaCorrelation: Float64Array;
   observed: Float64Array;
   model: Float64Array;
+  /**
+   * The fitted model's background per channel of the region (polynomial and step, the peaks' areas
+   * set to zero), counts. Absent in results cached before it was kept.
+   */
+  background?: Float64Array;
   residuals: Float64Array;
   /** Quality flags of the whole fit (fit-not-converged, fit-poor-deviance, …). */
   flags: string[];

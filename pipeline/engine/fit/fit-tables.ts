@@ -57,7 +57,7 @@ export function fitTables(tasks: readonly MeasureTask[], results: ReadonlyMap<st
       });
       for (let i = 0; i < fit.observed.length; i++) {
         const channel = fit.firstChannel + i;
-        residuals.push({ run: task.run, detector: fit.detector, group: fit.groupKey, channel, energyKeV: channelToEnergyKeV(cal, channel), observed: fit.observed[i]!, model: fit.model[i]!, residual: fit.residuals[i]! });
+        residuals.push({ run: task.run, detector: fit.detector, group: fit.groupKey, channel, energyKeV: channelToEnergyKeV(cal, channel), observed: fit.observed[i]!, model: fit.model[i]!, residual: fit.residuals[i]!, background: fit.background?.[i] ?? Number.NaN });
       }
     }
     const drift = result.drift;

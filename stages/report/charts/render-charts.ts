@@ -9,6 +9,7 @@ import { renderSvg, SvgRenderer } from './render-svg.js';
 import { runTrendChartSpec, type RunTrendPoint } from './run-trend-chart.js';
 import { spectrumChartData, spectrumChartSpec } from './spectrum-chart.js';
 import { summarizeBudget } from '../uncertainty-budget.js';
+import { driftRows } from '../html/drift-rows.js';
 
 async function chart(id: string, caption: string, spec: object | null): Promise<RenderedChart | null> {
   return spec === null ? null : { id, caption, svg: await renderSvg(spec) };
@@ -58,6 +59,7 @@ export async function renderCharts(x: Omit<SummaryInput, 'charts'>): Promise<Ren
   const trend = (f: (q: (typeof reduced)[number]) => number): RunTrendPoint[] => reduced.map((q) => ({ order: seen.get(q.run)!, run: q.run, detector: q.detector, value: f(q) }));
   const deadTime = await chart('dead-time', 'Dead time per run: 1 − live fraction (%), per detector', runTrendChartSpec(trend((q) => 100 * (1 - q.liveFraction)), 'dead time (%)'));
   const drift = await chart('gain-drift', 'Centroid shift of the strongest measured peak from its expected energy (gain drift), per detector', runTrendChartSpec(trend((q) => q.peakShiftKeV), 'centroid shift (keV)'));
+  const driftTracking = await chart('drift-tracking', `Gain drift: tracking-peak centroid minus its predicted energy per run and detector, ±1 standard uncertainty; shaded: ±${x.config.drift.tolerance_keV} keV tolerance (drift.tolerance_keV), red: beyond it`, driftTrackingSpec(x, seen));
   const budget = await chart('budget', 'Uncertainty budget: median relative uncertainty of dσ/dΩ by component', budgetChartSpec(summarizeBudget(x.budgets)));
   const spectra: RenderedCharts['spectra'] = [];
   const renderers = new Map<boolean, SvgRenderer>();
@@ -79,5 +81,13 @@ export async function renderCharts(x: Omit<SummaryInput, 'charts'>): Promise<Ren
   } finally {
     for (const r of renderers.values()) r.finalize();
   }
-  return { excitation, angular: { chart: angularChart, shown: energies.shown.length, total: energies.total }, normalization: await chart('normalization', 'Effective solid angle per reference run, per detector, over time', normalizationChartSpec(x.points, nominal)), deadTime, drift, budget, spectra };
+  return { excitation, angular: { chart: angularChart, shown: energies.shown.length, total: energies.total }, normalization: await chart('normalization', 'Effective solid angle per reference run, per detector, over time', normalizationChartSpec(x.points, nominal)), deadTime, drift, driftTracking, budget, spectra };
+}
+
+/** The drift-tracking shift chart (qc rows with drift columns, drift.mode track or correct), or null. */
+function driftTrackingSpec(x: Omit<SummaryInput, 'charts'>, order: ReadonlyMap<string, number>): object | null {
+  const rows = driftRows(x.qc);
+  if (rows.length === 0) return null;
+  const tol = x.config.drift.tolerance_keV;
+  return runTrendChartSpec(rows.map((q) => ({ order: order.get(q.run)!, run: q.run, detector: q.detector, value: q.driftShiftKeV, unc: q.driftShiftUncKeV })), 'tracking-peak shift (keV)', { lo: -tol, hi: tol });
 }

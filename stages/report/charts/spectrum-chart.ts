@@ -5,7 +5,8 @@ import { CHART_CONFIG } from './chart-config.js';
 /**
  * One spectrum chart compiled once and fed each spectrum's data sets: `counts` (bin centre,
  * counts per bin, step line on a log axis, empty bins at EMPTY_BIN), `windows` (peak windows and background
- * windows, shaded) and `curves` (fitted model and background, rescaled to counts per bin).
+ * windows, shaded) and `curves` (fitted model solid, its background dashed, one line per curve label,
+ * rescaled to counts per bin).
  */
 export function spectrumChartSpec(energyAxis: boolean): object {
   const xTitle = energyAxis ? 'energy (keV)' : 'channel';
@@ -24,7 +25,17 @@ export function spectrumChartSpec(energyAxis: boolean): object {
         },
       },
       { data: { name: 'counts' }, mark: { type: 'line', interpolate: 'step', strokeWidth: 1, color: '#222' }, encoding: { x, y: { field: 'c', type: 'quantitative', title: 'counts per bin', scale: { type: 'log', domainMin: EMPTY_BIN, clamp: true }, axis: { tickCount: 5, grid: false, format: '~s' } } } },
-      { data: { name: 'curves' }, mark: { type: 'line', strokeWidth: 1.3, color: '#b5179e' }, encoding: { x, y: { field: 'c', type: 'quantitative' }, strokeDash: { field: 'curve', type: 'nominal', title: null } } },
+      {
+        name: 'fit_curves',
+        data: { name: 'curves' },
+        mark: { type: 'line', strokeWidth: 1.3, color: '#b5179e' },
+        encoding: {
+          x,
+          y: { field: 'c', type: 'quantitative' },
+          detail: { field: 'curve', type: 'nominal' },
+          strokeDash: { field: 'role', type: 'nominal', legend: null, scale: { domain: ['model', 'background'], range: [[1, 0], [4, 2]] } },
+        },
+      },
     ],
     resolve: { scale: { color: 'independent' } },
     config: { ...CHART_CONFIG, legend: { ...CHART_CONFIG.legend, orient: 'bottom', direction: 'horizontal' } },
@@ -52,6 +63,6 @@ export function spectrumChartData(s: ReportSpectrum, yields: readonly YieldRow[]
     if (Number.isFinite(y.rightLo)) windows.push({ role: 'background', peak: y.peak, lo: e(y.rightLo - 0.5), hi: e(y.rightHi + 0.5) });
   }
   const curves: object[] = [];
-  for (const c of s.curves ?? []) for (let i = 0; i < c.channel.length; i++) curves.push({ curve: c.label, x: e(c.channel[i]!), c: Math.max(EMPTY_BIN, c.countsPerChannel[i]! * w) });
+  for (const c of s.curves ?? []) for (let i = 0; i < c.channel.length; i++) curves.push({ curve: c.label, role: c.role, x: e(c.channel[i]!), c: Math.max(EMPTY_BIN, c.countsPerChannel[i]! * w) });
   return { counts, windows, curves };
 }
