@@ -1,5 +1,6 @@
 import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import type { AppliedNormalization, ReferencePoint } from '../../pipeline/core/model/result-rows.js';
+import { PROPAGATED_REFERENCE_FLAGS } from './reference-point.js';
 
 /**
  * The `bracketing` rule: a sample run at time t uses the nearest usable reference run at or
@@ -70,7 +71,7 @@ function combine(before: ReferencePoint | undefined, after: ReferencePoint | und
   const value = chosen.reduce((s, c) => s + c.w * c.p.solidAngleMsr!, 0);
   const quad = (f: (p: ReferencePoint) => number) => Math.sqrt(chosen.reduce((s, c) => s + (c.w * c.p.solidAngleMsr! * f(c.p)) ** 2, 0)) / value;
   const lin = (f: (p: ReferencePoint) => number) => chosen.reduce((s, c) => s + c.w * c.p.solidAngleMsr! * f(c.p), 0) / value;
-  for (const c of chosen) for (const f of c.p.flags) if (f === 'reference-outlier' || f === 'solid-angle-off-nominal') flags.push(`uses-${f}`);
+  for (const c of chosen) for (const f of c.p.flags) if (PROPAGATED_REFERENCE_FLAGS.has(f)) flags.push(`uses-${f}`);
   return {
     solidAngleMsr: value,
     referenceRuns: chosen.map((c) => c.p.run),

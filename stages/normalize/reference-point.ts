@@ -14,6 +14,9 @@ import type { ReferencePoint } from '../../pipeline/core/model/result-rows.js';
 /** Flag of a reference point whose energy is above the onset of non-Rutherford scattering for one of its isotopes. */
 export const NON_RUTHERFORD_FLAG = 'reference-above-non-rutherford-onset';
 
+/** Reference-point flags a sample row normalized by that point carries, prefixed `uses-`. */
+export const PROPAGATED_REFERENCE_FLAGS: ReadonlySet<string> = new Set(['reference-outlier', 'solid-angle-off-nominal', NON_RUTHERFORD_FLAG]);
+
 /**
  * Effective solid angle from a reference run, inverting the yield equation
  *   Y = N_beam · Σ_i n_i σ_R,i(E_i, θ) F_i · ΔΩ · f_live,  N_beam = Q / (q e)

@@ -8,6 +8,7 @@ import { microCoulombToParticles } from '../../pipeline/core/physics/units.js';
 import { prepareBracketing } from './apply-bracketing.js';
 import { runRelUnc } from './reference-point.js';
 import type { SharedUncertainties } from './reference-solid-angle-model.js';
+import { PROPAGATED_REFERENCE_FLAGS } from './reference-point.js';
 
 export const REFERENCE_RULES = ['bracketing', 'nearest', 'series-mean'] as const;
 export type ReferenceRule = (typeof REFERENCE_RULES)[number];
@@ -20,7 +21,7 @@ export interface RuleChoice {
 }
 
 const usesFlags = (chosen: readonly ReferencePoint[]) => [
-  ...new Set(chosen.flatMap((p) => p.flags.filter((f) => f === 'reference-outlier' || f === 'solid-angle-off-nominal').map((f) => `uses-${f}`))),
+  ...new Set(chosen.flatMap((p) => p.flags.filter((f) => PROPAGATED_REFERENCE_FLAGS.has(f)).map((f) => `uses-${f}`))),
 ];
 
 /**

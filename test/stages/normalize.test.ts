@@ -347,3 +347,38 @@ describe('normalize: flags (README, "Flags")', () => {
     expect(out.diagnostics.map((d) => d.rule)).toEqual(['normalization-missing']);
   });
 });
+
+describe('normalize: a reference above the onset of non-Rutherford scattering (Bozoian, Nucl. Instrum. Methods B 58, 127 (1991); 4He: E_NR = 0.25 Z2 + 0.4 MeV, from memory)', () => {
+  // A silicon reference (Z = 14: E_NR = 3.9 MeV) at 4.5 MeV and at 3.0 MeV.
+  const siConfig = (): SeriesConfig =>
+    seriesSchema.parse({
+      series: 'onset-test',
+      beam: { projectile: '4He', charge_state: 1 },
+      detectors: [{ id: 'd01', angle_deg: 170, angle_unc_deg: 0.2, resolution_fwhm_keV: 15, solid_angle_msr: 2.5 }],
+      targets: [
+        { id: 'si-ref', layers: [{ composition: { Si: 1 }, areal_density_1e15_per_cm2: 60, areal_density_unc_rel: 0.03 }] },
+        { id: 'c-foil', layers: [{ composition: { C: 1 }, areal_density_1e15_per_cm2: 150, areal_density_unc_rel: 0.05 }] },
+      ],
+      peaks: [{ label: '12C elastic', target_nuclide: '12C' }],
+      normalization: { method: 'reference-run', reference_target: 'si-ref', nominal_tolerance_rel: 1e6 },
+    });
+  const refRun = (id: string, e: number, h: number) => run(id, 'reference', h, { target: 'si-ref', beamEnergyKeV: e });
+  const reduce = (e: number) => {
+    const cfg = siConfig();
+    return normalize({ config: cfg, referenceRuns: [refRun('r001', e, 0)], sampleRuns: [run('s01', 'sample', 1, { beamEnergyKeV: e })], measured: measured([['r001', 'd01', 30000]]) });
+  };
+  it('4.5 MeV > 3.9 MeV: the point is flagged, one warning names the onset, and the sample row normalized by it carries uses-…', () => {
+    const out = reduce(4500);
+    expect(out.points[0]!.flags).toContain('reference-above-non-rutherford-onset');
+    const warnings = out.diagnostics.filter((d) => d.rule === 'reference-above-non-rutherford-onset');
+    expect(warnings).toHaveLength(1);
+    expect(warnings[0]!.message).toMatch(/3900 keV/);
+    const row = out.rows.get('s01')!.get('d01')!;
+    expect(row.flags).toContain('uses-reference-above-non-rutherford-onset');
+  });
+  it('3.0 MeV < 3.9 MeV: no flag, no warning', () => {
+    const out = reduce(3000);
+    expect(out.points[0]!.flags).not.toContain('reference-above-non-rutherford-onset');
+    expect(out.diagnostics.filter((d) => d.rule === 'reference-above-non-rutherford-onset')).toEqual([]);
+  });
+});
