@@ -114,16 +114,23 @@ function combineGroup(group: CombinableRow[]): CombinedRow {
 /** A group of one row: every shared component is common, the uncorrelated ones independent (ν = 0, S = 1). */
 function single(r: CombinableRow): CombinedRow {
   let indep2 = 0;
-  const shared = new Map<string, number>();
+  // Shared components summed per (name, class, key) in first-seen order; a row has few, so a
+  // scan of the ones seen replaces a Map keyed by identity strings (one group per row is the usual case).
+  const seen: UncertaintyComponent[] = [];
+  const sums: number[] = [];
   for (const c of r.components) {
     if (c.class === 'uncorrelated') indep2 += c.value * c.value;
     else {
-      const id = identity(c);
-      shared.set(id, (shared.get(id) ?? 0) + c.value);
+      let k = 0;
+      while (k < seen.length && !(seen[k]!.class === c.class && seen[k]!.name === c.name && seen[k]!.key === c.key)) k++;
+      if (k === seen.length) {
+        seen.push(c);
+        sums.push(0 + c.value);
+      } else sums[k]! += c.value;
     }
   }
   let common2 = 0;
-  for (const v of shared.values()) common2 += v * v;
+  for (const v of sums) common2 += v * v;
   const uIndep = Math.sqrt(indep2);
   const uCommon = Math.sqrt(common2);
   return {

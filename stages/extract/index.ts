@@ -9,7 +9,7 @@ import type { RowNormalization } from '../../pipeline/core/normalization/row-nor
 import { nuclideTotals, resolveTarget } from '../../pipeline/core/model/resolve-target.js';
 import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import { nuclide } from '../../pipeline/core/physics/nuclides.js';
-import { crossSectionRowModels, type RowUncertainty } from './cross-section-row.js';
+import { crossSectionRowModels, type RowInput, type RowUncertainty } from './cross-section-row.js';
 import { interferenceFlags, type KnownLine } from './interference-flags.js';
 
 export { planPeakWindows, type PlannedPeak } from './plan-peak-windows.js';
@@ -68,6 +68,7 @@ export function extract(input: ExtractInput): ExtractOutput {
   );
   const targets = new Map(config.targets.map((t) => [t.id, t]));
   const linesByPlan = new WeakMap<object, KnownLine[]>();
+  const keepModels = input.keepModels !== false;
   for (const run of input.sampleRuns) {
     const target = targets.get(run.target)!;
     const strength = strengthByTarget.get(run.target)!;
@@ -93,21 +94,28 @@ export function extract(input: ExtractInput): ExtractOutput {
           else problems.set(peak.label, { count: 1, first: { severity: 'warning', rule: 'peak-kinematics', stage: 'extract', run: run.run, detector: det.id, message: `peak "${peak.label}": ${problem}` } });
         }
         const live = input.live.get(run.run)?.get(det.id) ?? { value: 1, unc: 0, source: 'none' as const };
-        const common = {
+        const normalization = input.normalization.get(run.run)?.get(det.id) ?? null;
+        const calibrationVersion = input.calibrationVersion.get(run.run) ?? '';
+        // One row input per row, as a literal of fixed shape (a spread of a shared object per row is slow).
+        const rowInput = (planned: RowInput['planned'], key: string, measured: RowInput['measured'], extraFlags: string[]): RowInput => ({
           config,
           projectile,
           run,
           detector: det,
           peak,
           live,
-          normalization: input.normalization.get(run.run)?.get(det.id) ?? null,
-          calibrationVersion: input.calibrationVersion.get(run.run) ?? '',
+          normalization,
+          calibrationVersion,
           planner,
           cache,
-          keepModels: input.keepModels !== false,
-        };
+          keepModels,
+          planned,
+          key,
+          measured,
+          extraFlags,
+        });
         if (planned.length === 0) {
-          push(crossSectionRowModels({ ...common, planned: null, key: peak.label, measured: null, extraFlags: live.source === 'none' ? ['no-live-time'] : [] }));
+          push(crossSectionRowModels(rowInput(null, peak.label, null, live.source === 'none' ? ['no-live-time'] : [])));
           continue;
         }
         for (const p of planned) {
@@ -119,7 +127,7 @@ export function extract(input: ExtractInput): ExtractOutput {
           if (measured && measured.net && Number.isFinite(measured.shiftKeV) && Math.abs(measured.shiftKeV) > shiftTol && measured.net.net > 5 * Math.sqrt(measured.net.netVariance)) {
             extraFlags.push('peak-shifted');
           }
-          push(crossSectionRowModels({ ...common, planned: p, key: p.key, measured, extraFlags }));
+          push(crossSectionRowModels(rowInput(p, p.key, measured, extraFlags)));
         }
       }
     }

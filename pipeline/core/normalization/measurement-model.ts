@@ -39,25 +39,24 @@ export interface ModelEstimate {
 }
 
 const identity = (c: { name: string; class: string; key: string }) => `${c.class}\u0000${c.name}\u0000${c.key}`;
-/** Identities of inputs, computed once per input object (a part's inputs are met by every row that uses it). */
-const identities = new WeakMap<ModelInput, string>();
 /** A shared input is one quantity per (name, class, key); an uncorrelated one is its own object. */
-const leafId = (inp: ModelInput): string | ModelInput => {
-  if (inp.class === 'uncorrelated') return inp;
-  let id = identities.get(inp);
-  if (id === undefined) identities.set(inp, (id = identity(inp)));
-  return id;
-};
+const leafId = (inp: ModelInput): string | ModelInput => (inp.class === 'uncorrelated' ? inp : identity(inp));
 
 interface Estimate {
   value: number;
   /** Leaf terms (∂y/∂leaf)·u(leaf), in parallel arrays (no object per term: rows are many). */
   inputs: ModelInput[];
+  /** leafId of each term's input (kept so a part's terms are not re-identified by every row using it). */
+  ids: (string | ModelInput)[];
   values: number[];
   abs: number[];
   paths: number[];
   components: UncertaintyComponent[];
 }
+
+/** Dual arithmetic per slot count, made once (the ops hold no state beyond `slots`). */
+const dualOpsBySlots: ScalarOps<Dual>[] = [];
+const dualOpsFor = (slots: number): ScalarOps<Dual> => (dualOpsBySlots[slots] ??= dualOps(slots));
 
 /** Cache of estimates: a part shared by many rows is differentiated once. */
 export type EstimateCache = WeakMap<MeasurementModel, Estimate>;
@@ -84,14 +83,23 @@ function estimate(model: MeasurementModel, cache: EstimateCache): Estimate {
   if (slots === 0) throw new RangeError('a measurement model needs at least one input or part');
   const x: Dual[] = model.inputs.map((inp, i) => dualVariable(inp.value, i, slots));
   const p: Dual[] = parts.map((e, j) => dualVariable(e.value, nOwn + j, slots));
-  const y = model.evaluate(x, p, dualOps(slots));
-  const index = new Map<string | ModelInput, number>();
-  const out: Estimate = { value: y.value, inputs: [], values: [], abs: [], paths: [], components: [] };
-  const addTerm = (input: ModelInput, value: number, abs: number, paths: number) => {
-    const id = leafId(input);
-    const k = index.get(id);
-    if (k === undefined) {
-      index.set(id, out.inputs.push(input) - 1);
+  const y = model.evaluate(x, p, dualOpsFor(slots));
+  const out: Estimate = { value: y.value, inputs: [], ids: [], values: [], abs: [], paths: [], components: [] };
+  const ids = out.ids;
+  /** Terms are few per row: a linear scan finds a repeated identity (same equality as a Map key) without a Map per row. */
+  let index: Map<string | ModelInput, number> | null = null;
+  const find = (id: string | ModelInput): number => {
+    if (index !== null) return index.get(id) ?? -1;
+    for (let k = 0; k < ids.length; k++) if (ids[k] === id) return k;
+    return -1;
+  };
+  const addTerm = (input: ModelInput, id: string | ModelInput, value: number, abs: number, paths: number) => {
+    const k = find(id);
+    if (k < 0) {
+      const n = out.inputs.push(input) - 1;
+      ids.push(id);
+      if (index !== null) index.set(id, n);
+      else if (n >= 32) index = new Map(ids.map((d, m) => [d, m]));
       out.values.push(value);
       out.abs.push(abs);
       out.paths.push(paths);
@@ -109,12 +117,12 @@ function estimate(model: MeasurementModel, cache: EstimateCache): Estimate {
     const u = inp.standardUncertainty;
     if (!(u >= 0) || !Number.isFinite(u)) throw new RangeError(`input "${inp.name}" has standard uncertainty ${u}; expected a finite value >= 0`);
     const v = y.tangent[i]! * u;
-    addTerm(inp, v, Math.abs(v), 1);
+    addTerm(inp, leafId(inp), v, Math.abs(v), 1);
   });
   parts.forEach((e, j) => {
     const dy = y.tangent[nOwn + j]!;
     const ady = Math.abs(dy);
-    for (let t = 0; t < e.inputs.length; t++) addTerm(e.inputs[t]!, dy * e.values[t]!, ady * e.abs[t]!, e.paths[t]!);
+    for (let t = 0; t < e.inputs.length; t++) addTerm(e.inputs[t]!, e.ids[t]!, dy * e.values[t]!, ady * e.abs[t]!, e.paths[t]!);
   });
   for (let t = 0; t < out.inputs.length; t++) {
     const input = out.inputs[t]!;
@@ -130,12 +138,13 @@ function estimate(model: MeasurementModel, cache: EstimateCache): Estimate {
   return out;
 }
 
-const nameRank = new Map<string, number>(COMPONENT_NAMES.map((n, i) => [n, i]));
+/** Rank of each component name (a prototype-free record: an unknown name gives undefined, as a Map would). */
+const nameRank: Record<string, number> = Object.assign(Object.create(null) as Record<string, number>, Object.fromEntries(COMPONENT_NAMES.map((n, i) => [n, i])));
 const classRank = { uncorrelated: 0, run: 1, detector: 2, series: 3 } as const;
 
 /** Table order: component name as COMPONENT_NAMES lists them, then class, then key. */
 export function componentOrder(a: UncertaintyComponent, b: UncertaintyComponent): number {
-  return nameRank.get(a.name)! - nameRank.get(b.name)! || classRank[a.class] - classRank[b.class] || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0);
+  return nameRank[a.name]! - nameRank[b.name]! || classRank[a.class] - classRank[b.class] || (a.key < b.key ? -1 : a.key > b.key ? 1 : 0);
 }
 
 /** A model reduced to its distinct leaf inputs and a plain-number evaluator (for Monte Carlo). */
