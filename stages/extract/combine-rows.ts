@@ -1,6 +1,7 @@
 // Weighted average with the scale factor S: R.L. Workman et al. (Particle Data Group), Prog. Theor. Exp. Phys. 2022, 083C01, Introduction §5.2; shared errors combined linearly (ρ = 1), JCGM 100:2008 §5.2.2.
 import { weightedMean } from '../../pipeline/core/uncertainty/weighted-mean.js';
 import type { UncertaintyComponent } from '../../pipeline/core/uncertainty/uncertainty-component.js';
+import type { CombinedTableRow } from '../../pipeline/core/tables/combined-columns.js';
 
 export interface CombinableRow {
   /** Position of the row in cross_sections.arrow. */
@@ -14,25 +15,8 @@ export interface CombinableRow {
   components: readonly UncertaintyComponent[];
 }
 
-export interface CombinedRow {
-  peak: string;
-  angleLabDeg: number;
-  /** Mean beam energy of the members, keV. */
-  beamEnergyKeV: number;
-  /** Spread of the members' beam energies (max − min), keV. */
-  beamEnergySpreadKeV: number;
-  value: number;
-  /** δx̄ from the independent parts, times S when S > 1. */
-  uncertaintyIndependent: number;
-  /** The components every member shares, combined with the weights. */
-  uncertaintyCommon: number;
-  uncertaintyTotal: number;
-  chi2: number;
-  ndf: number;
-  chi2PerNdf: number;
-  scaleFactor: number;
-  count: number;
-  /** Member rows (indices) and runs, in row order. */
+/** A combined value (the fields of combined.arrow, pipeline/core/tables/combined-columns.ts), built here. */
+export interface CombinedRow extends CombinedTableRow {
   rows: number[];
   runs: string[];
 }

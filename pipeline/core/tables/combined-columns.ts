@@ -4,10 +4,14 @@ import type { ColumnSpec } from './arrow-table.js';
 export interface CombinedTableRow {
   peak: string;
   angleLabDeg: number;
+  /** Mean beam energy of the members, keV. */
   beamEnergyKeV: number;
+  /** Spread of the members' beam energies (max − min), keV. */
   beamEnergySpreadKeV: number;
   value: number;
+  /** δx̄ from the independent parts, times S when S > 1. */
   uncertaintyIndependent: number;
+  /** The components every member shares, combined with the weights. */
   uncertaintyCommon: number;
   uncertaintyTotal: number;
   chi2: number;
@@ -15,6 +19,7 @@ export interface CombinedTableRow {
   chi2PerNdf: number;
   scaleFactor: number;
   count: number;
+  /** Member rows (indices) and runs, in row order. */
   rows: readonly number[];
   runs: readonly string[];
 }

@@ -1,25 +1,8 @@
 import * as arrow from 'apache-arrow';
+import type { ChangeSummary } from '../../core/model/change-summary.js';
 import { diffCrossSections, type DiffResult, type DiffRow, type QuantityId } from './diff-cross-sections.js';
 
-/** "Changes since the previous version", small enough for a page or a log record. */
-export interface ChangeSummary {
-  from: string | null;
-  to: string | null;
-  rowsFrom: number;
-  rowsTo: number;
-  matched: number;
-  /** Matched rows with a numeric change, and with only text (flags, calibration version) changed. */
-  moved: number;
-  relabelled: number;
-  added: number;
-  removed: number;
-  /** Moved rows whose largest |shift| exceeds 1σ and 3σ (combined uncertainty). */
-  beyond1Sigma: number;
-  beyond3Sigma: number;
-  largest: { run: string; detector: string; peak: string; quantity: QuantityId; shiftSigma: number } | null;
-  /** The listed rows with the largest shifts, at most `top`. */
-  top: { run: string; detector: string; peak: string; change: DiffRow['change']; quantity: QuantityId | null; from: number | null; to: number | null; shiftSigma: number | null }[];
-}
+export type { ChangeSummary };
 
 /** The summary of a diff (see diffCrossSections for the shift scale). */
 export function summarizeDiff(diff: DiffResult, from: string | null, to: string | null, top = 10): ChangeSummary {

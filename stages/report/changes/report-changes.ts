@@ -1,24 +1,7 @@
-/**
- * "Changes since the previous version" as the summary page shows it: the shape of the archive's
- * change summary (pipeline/engine/archive/change-summary.ts writes it, also as changes.json), restated
- * here so the report stage imports nothing from the engine. Shifts are (new − old)/√(u_old² + u_new²)
- * with u the total standard uncertainty of each version (README, "Operating guide").
- */
-export interface ReportChanges {
-  from: string | null;
-  to: string | null;
-  rowsFrom: number;
-  rowsTo: number;
-  matched: number;
-  moved: number;
-  relabelled: number;
-  added: number;
-  removed: number;
-  beyond1Sigma: number;
-  beyond3Sigma: number;
-  largest: { run: string; detector: string; peak: string; quantity: string; shiftSigma: number } | null;
-  top: readonly { run: string; detector: string; peak: string; change: string; quantity: string | null; from: number | null; to: number | null; shiftSigma: number | null }[];
-}
+import type { ChangeSummary } from '../../../pipeline/core/model/change-summary.js';
+
+/** The archive's change summary as the page shows it (pipeline/core/model/change-summary.ts). */
+export type ReportChanges = ChangeSummary;
 
 /**
  * What the report is told about archive versions: absent for a plain `xsred reduce` (the page says it
