@@ -4,10 +4,8 @@ import type { NetCounts } from '../../pipeline/core/counting/net-counts.js';
 import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import type { MeasurementModel } from '../../pipeline/core/normalization/measurement-model.js';
 import type { RowNormalization } from '../../pipeline/core/normalization/row-normalization.js';
-import type { ScalarOps } from '../../pipeline/core/normalization/scalar-ops.js';
-import { angleOffset, beamEnergyOffset, liveFractionInput, modelInput, screeningOffset } from '../../pipeline/core/normalization/shared-inputs.js';
-import { MB_TO_CM2 } from '../../pipeline/core/physics/units.js';
-import { sumNSigma, type NormalizingNuclide, type SharedUncertainties } from './reference-solid-angle-model.js';
+import type { NormalizingNuclide, SharedUncertainties } from './reference-solid-angle-model.js';
+import { referenceYieldExposure } from './reference-yield-exposure.js';
 
 export interface InternalReferenceInput {
   /** The sample run: its beam-energy uncertainty enters σ_R,ref. */
@@ -37,25 +35,8 @@ export interface InternalReferenceInput {
  * δθ of the detector, δs, and the reference layer's thickness (reference_areal_density).
  */
 export function internalReferenceExposure(x: InternalReferenceInput): RowNormalization {
-  const inputs = [
-    modelInput('reference_counting', 'run', `${x.run.run}/${x.detector}`, x.referencePeak.net, Math.sqrt(x.referencePeak.netVariance)),
-    liveFractionInput(x.run.run, x.detector, x.live),
-    beamEnergyOffset(x.run.run, x.run.beamEnergyUncKeV),
-    angleOffset(x.detector, x.angleUncDeg),
-    screeningOffset(x.shared.series, x.shared.screeningUncFrac),
-  ];
-  const thick = new Map<string, number>();
-  for (const n of x.nuclides) for (const l of n.layers) if (!thick.has(l.thickness.key)) thick.set(l.thickness.key, inputs.push(l.thickness) - 1);
-  const nuclides = x.nuclides;
-  const exposure: MeasurementModel = {
-    inputs,
-    parts: [],
-    evaluate<T>(v: readonly T[], _p: readonly T[], ops: ScalarOps<T>): T {
-      const [yRef, f, dE, dTheta, dS] = v as [T, T, T, T, T];
-      const nSigma = sumNSigma(ops, nuclides, (l) => v[thick.get(l.thickness.key)!]!, dE, dTheta, dS);
-      return ops.div(yRef, ops.scale(ops.mul(f, nSigma), MB_TO_CM2));
-    },
-  };
+  const y = referenceYieldExposure(x.run, x.detector, x.angleUncDeg, x.referencePeak, x.live, x.nuclides, x.shared);
+  const exposure: MeasurementModel = { inputs: y.inputs, parts: [], evaluate: (v, _p, ops) => y.evaluate(v, ops) };
   const flags = x.referencePeak.net > 0 ? [] : ['reference-net-not-positive'];
   return { method: 'internal-reference', exposure, referenceRuns: [], weights: [], solidAngleMsr: Number.NaN, flags };
 }

@@ -5,9 +5,8 @@ import type { RunRecord } from '../../pipeline/core/model/series-model.js';
 import type { MeasurementModel } from '../../pipeline/core/normalization/measurement-model.js';
 import type { RowNormalization } from '../../pipeline/core/normalization/row-normalization.js';
 import type { ScalarOps } from '../../pipeline/core/normalization/scalar-ops.js';
-import { angleOffset, beamEnergyOffset, liveFractionInput, modelInput, screeningOffset } from '../../pipeline/core/normalization/shared-inputs.js';
-import { MB_TO_CM2 } from '../../pipeline/core/physics/units.js';
-import { sumNSigma, type NormalizingNuclide, type SharedUncertainties } from './reference-solid-angle-model.js';
+import type { NormalizingNuclide, SharedUncertainties } from './reference-solid-angle-model.js';
+import { referenceYieldExposure } from './reference-yield-exposure.js';
 import type { RuleChoice } from './reference-rule.js';
 
 export interface MonitorInput {
@@ -71,24 +70,11 @@ export function monitorExposure(x: MonitorInput): RowNormalization {
     };
     byDetector.set(x.detector, rho);
   }
-  const inputs = [
-    modelInput('reference_counting', 'run', `${x.run.run}/${m.detector}`, m.peak.net, Math.sqrt(m.peak.netVariance)),
-    liveFractionInput(x.run.run, m.detector, m.live),
-    beamEnergyOffset(x.run.run, x.run.beamEnergyUncKeV),
-    angleOffset(m.detector, m.angleUncDeg),
-    screeningOffset(x.shared.series, x.shared.screeningUncFrac),
-  ];
-  const thick = new Map<string, number>();
-  for (const n of m.nuclides) for (const l of n.layers) if (!thick.has(l.thickness.key)) thick.set(l.thickness.key, inputs.push(l.thickness) - 1);
-  const nuclides = m.nuclides;
+  const y = referenceYieldExposure(x.run, m.detector, m.angleUncDeg, m.peak, m.live, m.nuclides, x.shared);
   const exposure: MeasurementModel = {
-    inputs,
+    inputs: y.inputs,
     parts: [rho],
-    evaluate<T>(v: readonly T[], p: readonly T[], ops: ScalarOps<T>): T {
-      const [yM, fM, dE, dTheta, dS] = v as [T, T, T, T, T];
-      const nSigma = sumNSigma(ops, nuclides, (l) => v[thick.get(l.thickness.key)!]!, dE, dTheta, dS);
-      return ops.mul(ops.div(yM, ops.scale(ops.mul(fM, nSigma), MB_TO_CM2)), p[0]!);
-    },
+    evaluate: (v, p, ops) => ops.mul(y.evaluate(v, ops), p[0]!),
   };
   const flags = [...x.choice.flags, ...(m.peak.net > 0 ? [] : ['monitor-net-not-positive'])];
   return { method: 'monitor', exposure, referenceRuns: x.choice.referenceRuns, weights: x.choice.weights, solidAngleMsr: Number.NaN, flags };
